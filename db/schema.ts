@@ -1,0 +1,293 @@
+import { sql } from "drizzle-orm";
+import {
+  bigint,
+  boolean,
+  char,
+  datetime,
+  double,
+  index,
+  int,
+  json,
+  mysqlEnum,
+  mysqlTable,
+  text,
+  uniqueIndex,
+  varchar,
+} from "drizzle-orm/mysql-core";
+
+// Every table has a primary key (replication and Galera need one) and ids are never assumed
+// consecutive. Rows that a transition changes carry `version` for conditional updates.
+
+const id = () => bigint("id", { mode: "number", unsigned: true }).autoincrement().primaryKey();
+const ref = (name: string) => bigint(name, { mode: "number", unsigned: true });
+const at = (name: string) => datetime(name, { mode: "date", fsp: 3 });
+const createdAt = () => at("created_at").notNull().default(sql`CURRENT_TIMESTAMP(3)`);
+
+export const ROLE_VALUES = ["applicant", "technician", "examiner", "supervisor", "admin"] as const;
+
+export const firms = mysqlTable("firms", {
+  id: id(),
+  name: varchar("name", { length: 160 }).notNull(),
+  kind: mysqlEnum("kind", ["design", "contractor", "owner"]).notNull(),
+  city: varchar("city", { length: 80 }).notNull().default(""),
+  createdAt: createdAt(),
+});
+
+export const users = mysqlTable(
+  "users",
+  {
+    id: id(),
+    email: varchar("email", { length: 254 }).notNull(),
+    name: varchar("name", { length: 120 }).notNull(),
+    role: mysqlEnum("role", ROLE_VALUES).notNull(),
+    status: mysqlEnum("status", ["invited", "active", "deactivated"]).notNull().default("invited"),
+    passwordHash: varchar("password_hash", { length: 100 }),
+    // Bumped on deactivation, role change and password change: every older session token dies.
+    sessionVersion: int("session_version").notNull().default(1),
+    firmId: ref("firm_id").references(() => firms.id),
+    title: varchar("title", { length: 120 }).notNull().default(""),
+    version: int("version").notNull().default(1),
+    createdAt: createdAt(),
+    updatedAt: at("updated_at").notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+  },
+  (t) => [uniqueIndex("users_email_uq").on(t.email), index("users_role_idx").on(t.role, t.status)],
+);
+
+export const authTokens = mysqlTable(
+  "auth_tokens",
+  {
+    id: id(),
+    userId: ref("user_id").notNull().references(() => users.id),
+    purpose: mysqlEnum("purpose", ["invite", "reset"]).notNull(),
+    // SHA-256 of the token in the e-mailed link; the token itself is never stored.
+    tokenHash: char("token_hash", { length: 64 }).notNull(),
+    expiresAt: at("expires_at").notNull(),
+    usedAt: at("used_at"),
+    createdBy: ref("created_by").references(() => users.id),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex("auth_tokens_hash_uq").on(t.tokenHash), index("auth_tokens_user_idx").on(t.userId, t.purpose)],
+);
+
+export const loginAttempts = mysqlTable(
+  "login_attempts",
+  {
+    id: id(),
+    email: varchar("email", { length: 254 }).notNull(),
+    ip: varchar("ip", { length: 64 }).notNull(),
+    success: boolean("success").notNull(),
+    at: createdAt(),
+  },
+  (t) => [index("login_attempts_email_idx").on(t.email, t.at), index("login_attempts_ip_idx").on(t.ip, t.at)],
+);
+
+export const APPLICATION_STATES = [
+  "draft",
+  "submitted",
+  "returned_incomplete",
+  "in_review",
+  "corrections_issued",
+  "resubmitted",
+  "approved",
+  "approved_with_conditions",
+  "withdrawn",
+] as const;
+
+export const applications = mysqlTable(
+  "applications",
+  {
+    id: id(),
+    // Department number, e.g. LFB-26-00042; set in the same transaction as the insert.
+    number: varchar("number", { length: 24 }),
+    applicantId: ref("applicant_id").notNull().references(() => users.id),
+    firmId: ref("firm_id").references(() => firms.id),
+    state: mysqlEnum("state", APPLICATION_STATES).notNull().default("draft"),
+    cycle: int("cycle").notNull().default(0),
+    workDescription: varchar("work_description", { length: 2000 }).notNull(),
+    siteAddress: varchar("site_address", { length: 200 }).notNull(),
+    parcelNumber: varchar("parcel_number", { length: 40 }).notNull(),
+    occupancyGroup: varchar("occupancy_group", { length: 8 }).notNull(),
+    constructionType: varchar("construction_type", { length: 8 }).notNull(),
+    valuationCents: bigint("valuation_cents", { mode: "number" }).notNull(),
+    dporName: varchar("dpor_name", { length: 120 }).notNull(),
+    dporLicence: varchar("dpor_licence", { length: 40 }).notNull(),
+    assignedExaminerId: ref("assigned_examiner_id").references(() => users.id),
+    conditions: json("conditions").$type<string[]>(),
+    returnReasons: json("return_reasons").$type<string[]>(),
+    submittedAt: at("submitted_at"),
+    acceptedAt: at("accepted_at"),
+    decidedAt: at("decided_at"),
+    version: int("version").notNull().default(1),
+    createdAt: createdAt(),
+    updatedAt: at("updated_at").notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+  },
+  (t) => [
+    uniqueIndex("applications_number_uq").on(t.number),
+    index("applications_applicant_idx").on(t.applicantId, t.updatedAt),
+    index("applications_state_idx").on(t.state, t.submittedAt, t.id),
+    index("applications_examiner_idx").on(t.assignedExaminerId, t.state, t.id),
+  ],
+);
+
+export const reviewCycles = mysqlTable(
+  "review_cycles",
+  {
+    id: id(),
+    applicationId: ref("application_id").notNull().references(() => applications.id),
+    number: int("number").notNull(),
+    examinerId: ref("examiner_id").references(() => users.id),
+    // The clock runs from receivedAt until the cycle's decision (corrections or approval).
+    receivedAt: at("received_at").notNull(),
+    decidedAt: at("decided_at"),
+    outcome: mysqlEnum("outcome", ["corrections_issued", "approved", "approved_with_conditions", "withdrawn"]),
+    version: int("version").notNull().default(1),
+  },
+  (t) => [uniqueIndex("review_cycles_app_number_uq").on(t.applicationId, t.number)],
+);
+
+export const DOCUMENT_KINDS = ["drawings", "calculations", "response_letter", "member_model"] as const;
+
+export const documents = mysqlTable(
+  "documents",
+  {
+    id: id(),
+    applicationId: ref("application_id").notNull().references(() => applications.id),
+    cycle: int("cycle").notNull(),
+    kind: mysqlEnum("kind", DOCUMENT_KINDS).notNull(),
+    originalName: varchar("original_name", { length: 255 }).notNull(),
+    contentType: varchar("content_type", { length: 80 }).notNull(),
+    byteSize: bigint("byte_size", { mode: "number" }).notNull(),
+    sha256: char("sha256", { length: 64 }).notNull(),
+    pageCount: int("page_count").notNull().default(0),
+    storageKey: varchar("storage_key", { length: 120 }).notNull(),
+    uploadedBy: ref("uploaded_by").notNull().references(() => users.id),
+    uploadedAt: createdAt(),
+  },
+  (t) => [
+    uniqueIndex("documents_app_sha_uq").on(t.applicationId, t.sha256),
+    index("documents_app_idx").on(t.applicationId, t.cycle),
+  ],
+);
+
+export const sheets = mysqlTable(
+  "sheets",
+  {
+    id: id(),
+    documentId: ref("document_id").notNull().references(() => documents.id),
+    applicationId: ref("application_id").notNull().references(() => applications.id),
+    page: int("page").notNull(),
+    sheetNumber: varchar("sheet_number", { length: 24 }),
+    title: varchar("title", { length: 200 }).notNull(),
+  },
+  (t) => [uniqueIndex("sheets_doc_page_uq").on(t.documentId, t.page), index("sheets_app_number_idx").on(t.applicationId, t.sheetNumber)],
+);
+
+export const comments = mysqlTable(
+  "comments",
+  {
+    id: id(),
+    applicationId: ref("application_id").notNull().references(() => applications.id),
+    // Per-application comment number, as it appears on the correction letter.
+    number: int("number").notNull(),
+    cycle: int("cycle").notNull(),
+    discipline: varchar("discipline", { length: 24 }).notNull(),
+    sheetId: ref("sheet_id").references(() => sheets.id),
+    // Pin position as a fraction of the page (0..1 from the top-left corner).
+    pinX: double("pin_x"),
+    pinY: double("pin_y"),
+    codeSection: varchar("code_section", { length: 60 }).notNull(),
+    codeEdition: varchar("code_edition", { length: 30 }).notNull(),
+    body: text("body").notNull(),
+    status: mysqlEnum("status", ["draft", "open", "resolved"]).notNull().default("draft"),
+    checkId: ref("check_id"),
+    createdBy: ref("created_by").notNull().references(() => users.id),
+    createdAt: createdAt(),
+    resolvedAt: at("resolved_at"),
+    resolvedBy: ref("resolved_by").references(() => users.id),
+    version: int("version").notNull().default(1),
+  },
+  (t) => [uniqueIndex("comments_app_number_uq").on(t.applicationId, t.number), index("comments_app_status_idx").on(t.applicationId, t.status)],
+);
+
+export const responses = mysqlTable(
+  "responses",
+  {
+    id: id(),
+    commentId: ref("comment_id").notNull().references(() => comments.id),
+    cycle: int("cycle").notNull(),
+    body: text("body").notNull(),
+    // Where the change is: revised sheet number or calc page, as the applicant states it.
+    changeReference: varchar("change_reference", { length: 120 }).notNull().default(""),
+    documentId: ref("document_id").references(() => documents.id),
+    verdict: mysqlEnum("verdict", ["pending", "resolved", "not_resolved"]).notNull().default("pending"),
+    createdBy: ref("created_by").notNull().references(() => users.id),
+    createdAt: createdAt(),
+    reviewedBy: ref("reviewed_by").references(() => users.id),
+    reviewedAt: at("reviewed_at"),
+    version: int("version").notNull().default(1),
+  },
+  (t) => [uniqueIndex("responses_comment_cycle_uq").on(t.commentId, t.cycle)],
+);
+
+export const assignments = mysqlTable(
+  "assignments",
+  {
+    id: id(),
+    applicationId: ref("application_id").notNull().references(() => applications.id),
+    examinerId: ref("examiner_id").notNull().references(() => users.id),
+    assignedBy: ref("assigned_by").notNull().references(() => users.id),
+    // Internal: never shown to the applicant.
+    reason: varchar("reason", { length: 500 }).notNull().default(""),
+    assignedAt: createdAt(),
+    endedAt: at("ended_at"),
+  },
+  (t) => [index("assignments_app_idx").on(t.applicationId, t.assignedAt)],
+);
+
+// Append-only: the code has no update or delete path for this table.
+export const auditEvents = mysqlTable(
+  "audit_events",
+  {
+    id: id(),
+    at: createdAt(),
+    actorId: ref("actor_id"),
+    actorRole: varchar("actor_role", { length: 20 }),
+    action: varchar("action", { length: 64 }).notNull(),
+    entityType: varchar("entity_type", { length: 32 }).notNull(),
+    entityId: varchar("entity_id", { length: 64 }).notNull(),
+    applicationId: ref("application_id"),
+    summary: varchar("summary", { length: 500 }).notNull(),
+    detail: json("detail").$type<Record<string, unknown>>(),
+    ip: varchar("ip", { length: 64 }),
+  },
+  (t) => [index("audit_app_idx").on(t.applicationId, t.at), index("audit_action_idx").on(t.action, t.at)],
+);
+
+// Transactional outbox: written in the same transaction as the change it announces;
+// the worker sends and marks it. Message-ID is derived from the row id.
+export const outbox = mysqlTable(
+  "outbox",
+  {
+    id: id(),
+    dedupeKey: varchar("dedupe_key", { length: 191 }).notNull(),
+    template: varchar("template", { length: 64 }).notNull(),
+    toAddress: varchar("to_address", { length: 254 }).notNull(),
+    toName: varchar("to_name", { length: 120 }).notNull().default(""),
+    subject: varchar("subject", { length: 250 }).notNull(),
+    textBody: text("text_body").notNull(),
+    applicationId: ref("application_id"),
+    status: mysqlEnum("status", ["pending", "sent", "failed"]).notNull().default("pending"),
+    attempts: int("attempts").notNull().default(0),
+    nextAttemptAt: at("next_attempt_at").notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+    lastError: varchar("last_error", { length: 500 }),
+    createdAt: createdAt(),
+    sentAt: at("sent_at"),
+  },
+  (t) => [uniqueIndex("outbox_dedupe_uq").on(t.dedupeKey), index("outbox_pending_idx").on(t.status, t.nextAttemptAt, t.id)],
+);
+
+export type User = typeof users.$inferSelect;
+export type Application = typeof applications.$inferSelect;
+export type DocumentRow = typeof documents.$inferSelect;
+export type CommentRow = typeof comments.$inferSelect;
+export type OutboxRow = typeof outbox.$inferSelect;

@@ -1,0 +1,67 @@
+// Demo data for the invented City of Larkspur Falls. Idempotent: re-running updates the same
+// rows by their natural keys (firm name, user e-mail) and adds nothing twice.
+import { eq } from "drizzle-orm";
+import { closeDb, db } from "./client";
+import { firms, users } from "./schema";
+import { hashPassword } from "@/lib/auth/password";
+import type { Role } from "@/lib/workflow/roles";
+
+export const DEMO_PASSWORD = "spanproof-demo";
+
+export const DEMO_FIRMS = [
+  { name: "Corbel & Finch Structural", kind: "design", city: "Larkspur Falls" },
+  { name: "Tamarack Builders", kind: "contractor", city: "Larkspur Falls" },
+  { name: "Quarry Lane Architects", kind: "design", city: "Eastmere" },
+] as const;
+
+export const DEMO_USERS: { email: string; name: string; role: Role; title: string; firm?: string }[] = [
+  { email: "admin@larkspurfalls.example", name: "Rosa Quintero", role: "admin", title: "Systems administrator" },
+  { email: "tech@larkspurfalls.example", name: "Marisol Okafor", role: "technician", title: "Permit technician" },
+  { email: "examiner@larkspurfalls.example", name: "Henrik Alvarado", role: "examiner", title: "Plans examiner, structural" },
+  { email: "examiner2@larkspurfalls.example", name: "Priya Lindqvist", role: "examiner", title: "Plans examiner" },
+  { email: "supervisor@larkspurfalls.example", name: "Gwen Tanaka", role: "supervisor", title: "Supervising plans examiner" },
+  { email: "owen@corbelfinch.example", name: "Owen Corbel", role: "applicant", title: "Principal, PE", firm: "Corbel & Finch Structural" },
+  { email: "lena@tamarackbuilders.example", name: "Lena Marsh", role: "applicant", title: "Project manager", firm: "Tamarack Builders" },
+];
+
+export async function seedBase(): Promise<void> {
+  const database = db();
+  const firmIds = new Map<string, number>();
+  for (const f of DEMO_FIRMS) {
+    const [existing] = await database.select({ id: firms.id }).from(firms).where(eq(firms.name, f.name)).limit(1);
+    if (existing) firmIds.set(f.name, existing.id);
+    else {
+      const [row] = await database.insert(firms).values(f).$returningId();
+      if (row) firmIds.set(f.name, row.id);
+    }
+  }
+  const passwordHash = await hashPassword(DEMO_PASSWORD);
+  for (const u of DEMO_USERS) {
+    const values = {
+      email: u.email,
+      name: u.name,
+      role: u.role,
+      title: u.title,
+      status: "active" as const,
+      passwordHash,
+      firmId: u.firm ? (firmIds.get(u.firm) ?? null) : null,
+    };
+    await database
+      .insert(users)
+      .values(values)
+      .onDuplicateKeyUpdate({ set: { name: values.name, role: values.role, title: values.title, status: "active", passwordHash, firmId: values.firmId } });
+  }
+}
+
+const isMain = process.argv[1]?.endsWith("seed.ts");
+if (isMain) {
+  try {
+    await seedBase();
+    console.log(`[seed] demo department ready: ${DEMO_USERS.length} accounts, password "${DEMO_PASSWORD}"`);
+  } catch (e) {
+    console.error("[seed] failed:", e instanceof Error ? e.message : e);
+    process.exitCode = 1;
+  } finally {
+    await closeDb();
+  }
+}

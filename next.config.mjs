@@ -26,6 +26,8 @@ const securityHeaders = [
 const nextConfig = {
   reactStrictMode: true,
   poweredByHeader: false,
+  // The test command type-checks the whole tree with tsc as its own step; the build need not repeat it.
+  typescript: { ignoreBuildErrors: true },
   serverExternalPackages: ["pdfjs-dist", "mysql2", "nodemailer"],
   experimental: { serverActions: { bodySizeLimit: "2mb" } },
   async headers() {

@@ -89,7 +89,7 @@ export function UsersAdmin({ selfId, firms }: { selfId: number; firms: { id: num
 
   return (
     <div className="grid gap-8 lg:grid-cols-[1fr_20rem]">
-      <section aria-labelledby="users-title">
+      <section aria-labelledby="users-title" className="min-w-0">
         <h2 id="users-title" className="mb-3 text-lg font-semibold">
           People with access
         </h2>

@@ -73,3 +73,10 @@ export async function readJson<S extends z.ZodType>(req: NextRequest, schema: S)
   }
   return schema.parse(body);
 }
+
+/** Path ids: anything but a positive integer is simply "not found". */
+export function pathId(raw: string | undefined, what = "That record"): number {
+  const n = Number(raw);
+  if (!raw || !/^\d{1,15}$/.test(raw) || !Number.isSafeInteger(n) || n <= 0) throw new AppError("not_found", `${what} was not found.`);
+  return n;
+}

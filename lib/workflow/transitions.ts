@@ -226,8 +226,9 @@ export const TRANSITIONS: { readonly [E in WorkflowEvent]: TransitionRule<E> } =
     assigns: (input) => input.examinerId,
     audit: {
       type: "review.reassigned",
+      // The reason is internal (kept in the audit detail): applicants see this summary.
       summary: ({ facts, input }) =>
-        `Review reassigned from plans examiner #${facts.assignedExaminerId ?? "none"} to #${input.examinerId}: ${input.reason}`,
+        `Review reassigned from plans examiner #${facts.assignedExaminerId ?? "none"} to plans examiner #${input.examinerId}.`,
     },
     notify: [
       { template: "review.assigned", to: "assigned_examiner" },

@@ -283,11 +283,12 @@ describe("audit summaries", () => {
     expect(byExaminer.result.effects.audit.summary).not.toContain("supervising examiner");
   });
 
-  it("name the reason for a reassignment", () => {
+  it("keep the internal reason for a reassignment out of the summary applicants read", () => {
     const facts = passingFacts("in_review", "reassign");
     const outcome = attempt(ACTORS.supervisor, facts, "reassign", { examinerId: 207, reason: "Examiner on leave" });
     if (!outcome.ok) throw new Error(outcome.message);
-    expect(outcome.result.effects.audit.summary).toContain("Examiner on leave");
+    expect(outcome.result.effects.audit.summary).not.toContain("Examiner on leave");
+    expect(outcome.result.input.reason).toBe("Examiner on leave");
     expect(outcome.result.to).toBe("in_review");
   });
 });

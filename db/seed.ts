@@ -5,6 +5,7 @@ import { closeDb, db } from "./client";
 import { firms, users } from "./schema";
 import { hashPassword } from "@/lib/auth/password";
 import { DEMO_FIRMS, DEMO_PASSWORD, DEMO_USERS } from "./demo-accounts";
+import { seedApplications } from "./seed-applications";
 
 export async function seedBase(): Promise<void> {
   const database = db();
@@ -39,7 +40,8 @@ const isMain = process.argv[1]?.endsWith("seed.ts");
 if (isMain) {
   try {
     await seedBase();
-    console.log(`[seed] demo department ready: ${DEMO_USERS.length} accounts, password "${DEMO_PASSWORD}"`);
+    const added = await seedApplications(db());
+    console.log(`[seed] demo department ready: ${DEMO_USERS.length} accounts, password "${DEMO_PASSWORD}"; ${added ? `${added} demo applications added` : "demo applications already present"}`);
   } catch (e) {
     console.error("[seed] failed:", e instanceof Error ? e.message : e);
     process.exitCode = 1;

@@ -116,6 +116,8 @@ export const applications = mysqlTable(
     returnReasons: json("return_reasons").$type<string[]>(),
     submittedAt: at("submitted_at"),
     acceptedAt: at("accepted_at"),
+    // Due date of the current review cycle (copied from review_cycles so the queue can sort on an index).
+    dueAt: at("due_at"),
     decidedAt: at("decided_at"),
     version: int("version").notNull().default(1),
     createdAt: createdAt(),
@@ -126,6 +128,8 @@ export const applications = mysqlTable(
     index("applications_applicant_idx").on(t.applicantId, t.updatedAt),
     index("applications_state_idx").on(t.state, t.submittedAt, t.id),
     index("applications_examiner_idx").on(t.assignedExaminerId, t.state, t.id),
+    index("applications_queue_due_idx").on(t.state, t.dueAt, t.id),
+    index("applications_examiner_due_idx").on(t.assignedExaminerId, t.state, t.dueAt, t.id),
   ],
 );
 
@@ -138,6 +142,8 @@ export const reviewCycles = mysqlTable(
     examinerId: ref("examiner_id").references(() => users.id),
     // The clock runs from receivedAt until the cycle's decision (corrections or approval).
     receivedAt: at("received_at").notNull(),
+    // Target date for the decision, in business days from receipt (set when the cycle starts).
+    dueAt: at("due_at"),
     decidedAt: at("decided_at"),
     outcome: mysqlEnum("outcome", ["corrections_issued", "approved", "approved_with_conditions", "withdrawn"]),
     version: int("version").notNull().default(1),
@@ -284,6 +290,62 @@ export const outbox = mysqlTable(
     sentAt: at("sent_at"),
   },
   (t) => [uniqueIndex("outbox_dedupe_uq").on(t.dedupeKey), index("outbox_pending_idx").on(t.status, t.nextAttemptAt, t.id)],
+);
+
+// ---- deflection checks (the examiner's re-run of a claimed member, or an applicant's pre-check)
+
+export const deflectionChecks = mysqlTable(
+  "deflection_checks",
+  {
+    id: id(),
+    applicationId: ref("application_id").notNull().references(() => applications.id),
+    cycle: int("cycle").notNull(),
+    purpose: mysqlEnum("purpose", ["review", "precheck"]).notNull(),
+    memberMark: varchar("member_mark", { length: 40 }).notNull(),
+    sheetId: ref("sheet_id").references(() => sheets.id),
+    calcDocumentId: ref("calc_document_id").references(() => documents.id),
+    calcPage: int("calc_page"),
+    // The model file verbatim, the options and the solver version: a re-run years later gives the same answer.
+    model: json("model").$type<unknown>().notNull(),
+    options: json("options").$type<Record<string, unknown>>().notNull(),
+    solverVersion: varchar("solver_version", { length: 40 }).notNull(),
+    result: json("result").$type<unknown>().notNull(),
+    verdict: mysqlEnum("verdict", ["pass", "fail", "near_limit", "disputed", "no_limit"]).notNull(),
+    summary: varchar("summary", { length: 500 }).notNull(),
+    status: mysqlEnum("status", ["current", "reverify"]).notNull().default("current"),
+    createdBy: ref("created_by").notNull().references(() => users.id),
+    createdAt: createdAt(),
+    version: int("version").notNull().default(1),
+  },
+  (t) => [index("checks_app_idx").on(t.applicationId, t.cycle), index("checks_calc_idx").on(t.calcDocumentId)],
+);
+
+// ---- review clock settings, holidays and reminder bookkeeping
+
+export const settings = mysqlTable("settings", {
+  key: varchar("key", { length: 64 }).primaryKey(),
+  value: json("value").$type<unknown>().notNull(),
+  updatedBy: ref("updated_by").references(() => users.id),
+  updatedAt: at("updated_at").notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+});
+
+export const holidays = mysqlTable("holidays", {
+  // Calendar date in the department's time zone, YYYY-MM-DD.
+  day: varchar("day", { length: 10 }).primaryKey(),
+  name: varchar("name", { length: 80 }).notNull(),
+});
+
+// One row per reminder sent, so the job sends each once, across runs and restarts.
+export const remindersSent = mysqlTable(
+  "reminders_sent",
+  {
+    id: id(),
+    applicationId: ref("application_id").notNull().references(() => applications.id),
+    cycle: int("cycle").notNull(),
+    kind: mysqlEnum("kind", ["due_tomorrow", "overdue"]).notNull(),
+    sentAt: createdAt(),
+  },
+  (t) => [uniqueIndex("reminders_once_uq").on(t.applicationId, t.cycle, t.kind)],
 );
 
 export type User = typeof users.$inferSelect;

@@ -25,6 +25,8 @@ const securityHeaders = [
 
 const nextConfig = {
   reactStrictMode: true,
+  // Parallel builds (several developers or instances on one machine) each get their own folder.
+  distDir: process.env.NEXT_DIST_DIR ?? ".next",
   poweredByHeader: false,
   // The test command type-checks the whole tree with tsc as its own step; the build need not repeat it.
   typescript: { ignoreBuildErrors: true },

@@ -1,14 +1,15 @@
+import { ApplicationsTable } from "@/components/applications/applications-table";
 import { PageHeader } from "@/components/ui/page-header";
 import { requirePageUser } from "@/lib/auth/session";
 
 export const metadata = { title: "Queue" };
 
-export default async function Page() {
-  await requirePageUser();
+export default async function QueuePage() {
+  await requirePageUser("supervisor");
   return (
     <>
-      <PageHeader title="Queue" />
-      <p className="text-sm text-ink-soft">Nothing is here yet.</p>
+      <PageHeader title="Queue" subtitle="Every filed application and who holds it. Filter by status to see the reviews in progress." />
+      <ApplicationsTable scope="all" caption="Department queue" />
     </>
   );
 }

@@ -23,9 +23,9 @@ for (const role of ROLES) {
 
 test("a wrong password gets the one generic message", async ({ page }) => {
   const u = demoUser("examiner");
-  await signIn(page, u.email, "not the password");
+  await signIn(page, u.email, "not the password", { expectSuccess: false });
   await expect(page.locator("form").getByRole("alert")).toHaveText("That e-mail address and password do not match an active account.");
-  await signIn(page, "nobody@larkspurfalls.example", "not the password");
+  await signIn(page, "nobody@larkspurfalls.example", "not the password", { expectSuccess: false });
   await expect(page.locator("form").getByRole("alert")).toHaveText("That e-mail address and password do not match an active account.");
 });
 

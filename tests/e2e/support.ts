@@ -11,11 +11,13 @@ export function demoUser(role: Role) {
 }
 
 /** Page object for the sign-in screen. */
-export async function signIn(page: Page, email: string, password: string) {
+export async function signIn(page: Page, email: string, password: string, { expectSuccess = true } = {}) {
   await page.goto("/sign-in");
   await page.getByLabel("E-mail address").fill(email);
   await page.getByLabel("Password").fill(password);
   await page.getByRole("button", { name: "Sign in" }).click();
+  // Wait for the session: the sign-in page redirects to the role's home once it is set.
+  if (expectSuccess) await page.waitForURL((u) => !u.pathname.startsWith("/sign-in"));
 }
 
 export async function signOut(page: Page) {

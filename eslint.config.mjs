@@ -11,11 +11,11 @@ const pureCore = {
   ],
 };
 
-export default [
+const config = [
   ...nextVitals,
   ...nextTs,
   {
-    ignores: [".next/**", "node_modules/**", ".data/**", "drizzle/**", "test-results/**", "playwright-report/**", "next-env.d.ts"],
+    ignores: [".next/**", ".next-*/**", "public/**", "node_modules/**", ".data/**", "drizzle/**", "test-results/**", "playwright-report/**", "next-env.d.ts"],
   },
   {
     files: ["lib/solver/**/*.ts", "lib/workflow/**/*.ts"],
@@ -37,3 +37,5 @@ export default [
     },
   },
 ];
+
+export default config;

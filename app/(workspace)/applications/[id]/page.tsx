@@ -12,12 +12,10 @@ export default async function ApplicationPage({ params }: { params: Promise<{ id
   const user = await requirePageUser("applicant", "technician", "examiner", "supervisor");
   const { id } = await params;
   if (!/^\d{1,15}$/.test(id)) notFound();
-  try {
-    const view = await applicationView(db(), user, Number(id));
-    // Serialised once so the client receives exactly what the API would send.
-    return <ApplicationWorkspace initial={JSON.parse(JSON.stringify(view)) as View} />;
-  } catch (e) {
+  const view = await applicationView(db(), user, Number(id)).catch((e: unknown) => {
     if (e instanceof AppError && e.code === "not_found") notFound();
     throw e;
-  }
+  });
+  // Serialised once so the client receives exactly what the API would send.
+  return <ApplicationWorkspace initial={JSON.parse(JSON.stringify(view)) as View} />;
 }

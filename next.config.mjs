@@ -33,7 +33,11 @@ const nextConfig = {
   serverExternalPackages: ["pdfjs-dist", "mysql2", "nodemailer"],
   experimental: { serverActions: { bodySizeLimit: "2mb" } },
   async headers() {
-    return [{ source: "/:path*", headers: securityHeaders }];
+    // Served documents set their own, stricter CSP (sandbox) in the route handler.
+    return [
+      { source: "/((?!api/documents/).*)", headers: securityHeaders },
+      { source: "/api/documents/:path*", headers: securityHeaders.filter((h) => h.key !== "Content-Security-Policy") },
+    ];
   },
 };
 

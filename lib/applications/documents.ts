@@ -132,8 +132,8 @@ export async function uploadDocument(
   }
 }
 
-/** The stored bytes of one document, after the per-request check that the reader may see it. */
-export async function openDocument(database: Db, actor: Actor, documentId: number) {
+/** One document after the per-request check that the reader may see it; `open` streams its bytes. */
+export async function readableDocument(database: Db, actor: Actor, documentId: number) {
   const [doc] = await database.select().from(documents).where(eq(documents.id, documentId)).limit(1);
   if (!doc) throw notFound("That document");
   try {
@@ -143,5 +143,5 @@ export async function openDocument(database: Db, actor: Actor, documentId: numbe
     if (e instanceof AppError && (e.code === "forbidden" || e.code === "not_found")) throw notFound("That document");
     throw e;
   }
-  return { doc, stream: await storage().get(doc.storageKey) };
+  return { doc, open: (range?: { start: number; end: number }) => storage().get(doc.storageKey, range) };
 }

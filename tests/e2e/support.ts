@@ -4,8 +4,9 @@ import type { Role } from "@/lib/workflow/roles";
 
 export const MAILBOX = `http://127.0.0.1:${process.env.TEST_MAIL_HTTP_PORT ?? "2680"}/messages`;
 
-export function demoUser(role: Role) {
-  const u = DEMO_USERS.find((x) => x.role === role);
+/** The n-th demo account of a role (0 = the first listed in the README). */
+export function demoUser(role: Role, n = 0) {
+  const u = DEMO_USERS.filter((x) => x.role === role)[n];
   if (!u) throw new Error(`no demo ${role}`);
   return { ...u, password: DEMO_PASSWORD };
 }

@@ -348,6 +348,52 @@ export const remindersSent = mysqlTable(
   (t) => [uniqueIndex("reminders_once_uq").on(t.applicationId, t.cycle, t.kind)],
 );
 
+// ---- plan-review fees: invoices in integer cents, and the payment provider's events
+
+export const invoices = mysqlTable(
+  "invoices",
+  {
+    id: id(),
+    applicationId: ref("application_id").notNull().references(() => applications.id),
+    // Department invoice number, e.g. INV-26-00042.
+    number: varchar("number", { length: 24 }),
+    // What the invoice is for: the first plan-review fee, or a fee for a later resubmittal.
+    purpose: varchar("purpose", { length: 40 }).notNull(),
+    cycle: int("cycle").notNull(),
+    status: mysqlEnum("status", ["open", "paid", "void", "refunded"]).notNull().default("open"),
+    totalCents: bigint("total_cents", { mode: "number" }).notNull(),
+    currency: char("currency", { length: 3 }).notNull().default("usd"),
+    // [{ code, label, amountCents, basis }] and the arithmetic shown to the applicant.
+    lineItems: json("line_items").$type<{ code: string; label: string; amountCents: number; basis: string }[]>().notNull(),
+    scheduleVersion: varchar("schedule_version", { length: 40 }).notNull(),
+    providerSessionId: varchar("provider_session_id", { length: 255 }),
+    providerPaymentId: varchar("provider_payment_id", { length: 255 }),
+    createdAt: createdAt(),
+    paidAt: at("paid_at"),
+    closedAt: at("closed_at"),
+    version: int("version").notNull().default(1),
+  },
+  (t) => [
+    uniqueIndex("invoices_number_uq").on(t.number),
+    uniqueIndex("invoices_app_purpose_cycle_uq").on(t.applicationId, t.purpose, t.cycle),
+    index("invoices_session_idx").on(t.providerSessionId),
+  ],
+);
+
+// Every webhook event once: the provider's event id is the idempotency key.
+export const paymentEvents = mysqlTable(
+  "payment_events",
+  {
+    id: id(),
+    providerEventId: varchar("provider_event_id", { length: 255 }).notNull(),
+    type: varchar("type", { length: 80 }).notNull(),
+    invoiceId: ref("invoice_id").references(() => invoices.id),
+    payload: json("payload").$type<unknown>().notNull(),
+    receivedAt: createdAt(),
+  },
+  (t) => [uniqueIndex("payment_events_provider_uq").on(t.providerEventId)],
+);
+
 export type User = typeof users.$inferSelect;
 export type Application = typeof applications.$inferSelect;
 export type DocumentRow = typeof documents.$inferSelect;

@@ -40,7 +40,7 @@ scripts/db.sh start
 
 if [ "${SKIP_BUILD:-0}" != 1 ]; then
   say "building the app (next build)"
-  node_modules/.bin/next build >/tmp/spanproof-build.log 2>&1 || { tail -40 /tmp/spanproof-build.log; fail "next build failed"; }
+  npm run --silent build >.data/build.log 2>&1 || { tail -40 .data/build.log; fail "next build failed"; }
 fi
 
 MAIL_HTTP_PORT=$MAIL_HTTP_PORT node_modules/.bin/tsx scripts/mail-receiver.ts & pids+=($!)

@@ -41,10 +41,10 @@ step "integration tests (MariaDB)" node_modules/.bin/vitest run --project integr
 say "migrating and seeding the browser-test database"
 "${TSX_SERVER[@]}" scripts/migrate.ts && "${TSX_SERVER[@]}" db/seed.ts || failed+=("e2e database")
 say "building the app"
-if node_modules/.bin/next build >/tmp/spanproof-test-build.log 2>&1; then
+if npm run --silent build >.data/test-build.log 2>&1; then
   step "browser tests (Playwright, chromium)" node_modules/.bin/playwright test
 else
-  tail -40 /tmp/spanproof-test-build.log; failed+=("next build")
+  tail -40 .data/test-build.log; failed+=("next build")
 fi
 
 if [ ${#failed[@]} -gt 0 ]; then

@@ -6,6 +6,7 @@ import { firms, users } from "./schema";
 import { hashPassword } from "@/lib/auth/password";
 import { DEMO_FIRMS, DEMO_PASSWORD, DEMO_USERS } from "./demo-accounts";
 import { seedApplications } from "./seed-applications";
+import { seedHistory } from "./seed-history";
 
 export async function seedBase(): Promise<void> {
   const database = db();
@@ -42,6 +43,8 @@ if (isMain) {
     await seedBase();
     const added = await seedApplications(db());
     console.log(`[seed] demo department ready: ${DEMO_USERS.length} accounts, password "${DEMO_PASSWORD}"; ${added ? `${added} demo applications added` : "demo applications already present"}`);
+    const history = await seedHistory(db());
+    console.log(`[seed] ${history ? `a year of review history added: ${history} applications` : "review history already present"}`);
   } catch (e) {
     console.error("[seed] failed:", e instanceof Error ? e.message : e);
     process.exitCode = 1;

@@ -4,6 +4,7 @@ import { closeDb, db } from "@/db/client";
 import { relayOutbox } from "@/db/queries/outbox";
 import { env } from "@/lib/env";
 import { createTransport } from "@/lib/mail/transport";
+import { remindersTick } from "@/lib/review-clock/reminders";
 
 const e = env();
 const transport = createTransport({ host: e.SMTP_HOST, port: e.SMTP_PORT });
@@ -16,6 +17,7 @@ async function loop() {
     try {
       const r = await relayOutbox(db(), transport, e.MAIL_FROM);
       if (r.sent || r.failed) console.log(`[worker] sent ${r.sent}, failed ${r.failed}`);
+      await remindersTick(db());
     } catch (err) {
       console.error("[worker] relay round failed:", err instanceof Error ? err.message : err);
     }

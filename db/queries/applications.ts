@@ -191,7 +191,7 @@ export async function getApplicationDetail(database: Db, id: number) {
         .orderBy(asc(responses.cycle))
     : [];
   const cycles = await database
-    .select({ number: reviewCycles.number, receivedAt: reviewCycles.receivedAt, decidedAt: reviewCycles.decidedAt, outcome: reviewCycles.outcome, examinerName: users.name })
+    .select({ number: reviewCycles.number, receivedAt: reviewCycles.receivedAt, dueAt: reviewCycles.dueAt, decidedAt: reviewCycles.decidedAt, outcome: reviewCycles.outcome, examinerName: users.name })
     .from(reviewCycles)
     .leftJoin(users, eq(users.id, reviewCycles.examinerId))
     .where(eq(reviewCycles.applicationId, id))

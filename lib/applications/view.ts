@@ -2,6 +2,7 @@ import "server-only";
 import type { Db } from "@/db/client";
 import { getApplicationDetail, loadFacts } from "@/db/queries/applications";
 import { listAuditForApplication } from "@/db/queries/audit";
+import { listHolidays } from "@/db/queries/settings";
 import { notFound } from "@/lib/errors";
 import { availableActions, can, checkAccess, STATE_INFO, stateLabel, type Actor } from "@/lib/workflow";
 import { UPLOAD_LIMITS } from "./documents";
@@ -58,6 +59,8 @@ export async function applicationView(database: Db, actor: Actor, id: number) {
     sheets: d.sheets,
     comments,
     cycles: d.cycles,
+    // For business-day arithmetic on the page (a few dozen days).
+    holidays: (await listHolidays(database)).map((h) => h.day),
     timeline,
     actions: availableActions(actor, facts),
     permissions: {

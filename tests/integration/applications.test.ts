@@ -72,6 +72,10 @@ describe("applications through the workflow", () => {
     await fireEvent(db(), p.tech, app.id, "accept", await version(app.id), { examinerId: p.examiner.id });
     let row = (await getApplicationRow(db(), app.id))!;
     expect(row).toMatchObject({ state: "in_review", cycle: 1, assignedExaminerId: p.examiner.id });
+    // First review: 10 business days by default (at least 14 calendar days later, at most 18 with holidays).
+    const days = (row.dueAt!.getTime() - row.acceptedAt!.getTime()) / 86_400_000;
+    expect(days).toBeGreaterThan(13);
+    expect(days).toBeLessThan(19);
 
     const sheetRows = await db().select().from(sheets).where(eq(sheets.applicationId, app.id));
     const c = await addComment(db(), p.examiner, app.id, {
@@ -88,6 +92,7 @@ describe("applications through the workflow", () => {
     expect((await applicationView(db(), p.applicant, app.id)).comments).toHaveLength(0);
     await fireEvent(db(), p.examiner, app.id, "issue_corrections", await version(app.id));
     expect((await applicationView(db(), p.applicant, app.id)).comments[0]).toMatchObject({ number: 1, status: "open" });
+    expect((await getApplicationRow(db(), app.id))!.dueAt).toBeNull(); // the clock stops while corrections are out
 
     await expect(fireEvent(db(), p.applicant, app.id, "resubmit", await version(app.id))).rejects.toMatchObject({ code: "guard_failed" });
     await respondToComment(db(), p.applicant, app.id, c.id, { body: "Deflection check added on calc page 7.", changeReference: "Calc p. 7, sheet S-201 rev 1" });

@@ -5,6 +5,8 @@ const baseURL = `http://127.0.0.1:${port}`;
 const smtp = process.env.TEST_SMTP_PORT ?? "2625";
 const mailHttp = process.env.TEST_MAIL_HTTP_PORT ?? "2680";
 const workerHealth = process.env.TEST_WORKER_PORT ?? "2681";
+// The local fake of the payment provider (scripts/fake-payments.ts); the app's SDK points at it.
+const payments = process.env.TEST_PAYMENTS_PORT ?? "2690";
 
 // Debian's chromium, never a downloaded browser. The network is closed: keep it quiet.
 const chromiumArgs = [
@@ -49,7 +51,16 @@ export default defineConfig({
       timeout: 30_000,
     },
     {
+      command: `node_modules/.bin/tsx scripts/fake-payments.ts`,
+      env: { PAYMENTS_PORT: payments, PAYMENTS_WEBHOOK_URL: `${baseURL}/api/payments/webhook` },
+      url: `http://127.0.0.1:${payments}/_fake/health`,
+      reuseExistingServer: false,
+      timeout: 30_000,
+    },
+    {
       command: `node node_modules/next/dist/bin/next start --hostname 127.0.0.1 --port ${port}`,
+      // This test department requires the plan-review fee before review starts.
+      env: { PAYMENTS_API_URL: `http://127.0.0.1:${payments}`, PAYMENT_REQUIRED_BEFORE_REVIEW: process.env.PAYMENT_REQUIRED_BEFORE_REVIEW ?? "true" },
       url: `${baseURL}/sign-in`,
       reuseExistingServer: false,
       timeout: 90_000,

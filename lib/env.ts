@@ -18,6 +18,14 @@ const schema = z.object({
     .transform((v) => v === "true"),
   STORAGE_DIR: z.string().min(1).default(".data/storage"),
   SESSION_MAX_AGE_MIN: z.coerce.number().int().min(5).max(24 * 60).default(8 * 60),
+  // Online payment of fees. The defaults point at the local fake of the provider (scripts/fake-payments.ts).
+  STRIPE_SECRET_KEY: z.string().regex(/^sk_(test|live)_\w{8,}$/, "must look like sk_test_…").default("sk_test_spanproof_local_fake"),
+  STRIPE_WEBHOOK_SECRET: z.string().regex(/^whsec_\w{8,}$/, "must look like whsec_…").default("whsec_spanproof_local_fake"),
+  PAYMENTS_API_URL: z.url({ error: "must be the payment provider's base URL, e.g. http://127.0.0.1:12111" }).default("http://127.0.0.1:12111"),
+  PAYMENT_REQUIRED_BEFORE_REVIEW: z
+    .enum(["true", "false"], { error: 'must be "true" or "false"' })
+    .default("false")
+    .transform((v) => v === "true"),
 });
 
 export type Env = z.infer<typeof schema>;

@@ -16,11 +16,16 @@ fi
 set -a; . ./.env; set +a
 PORT=${PORT:-3000}
 MAIL_HTTP_PORT=${MAIL_HTTP_PORT:-2580}
+PAYMENTS_PORT=${PAYMENTS_PORT:-12111}
 node_modules/.bin/tsx scripts/check-env.ts || exit 1
 
 require_port "$PORT" "the app" PORT
 require_port "$SMTP_PORT" "the mail receiver" SMTP_PORT
 require_port "$MAIL_HTTP_PORT" "the mailbox API" MAIL_HTTP_PORT
+# The local fake of the payment provider runs unless PAYMENTS_API_URL points elsewhere.
+fake_payments=0
+[ "${PAYMENTS_API_URL:-http://127.0.0.1:$PAYMENTS_PORT}" = "http://127.0.0.1:$PAYMENTS_PORT" ] && fake_payments=1
+[ "$fake_payments" = 1 ] && require_port "$PAYMENTS_PORT" "the local payment provider" PAYMENTS_PORT
 
 pids=()
 db_started=0
@@ -45,6 +50,9 @@ fi
 
 MAIL_HTTP_PORT=$MAIL_HTTP_PORT node_modules/.bin/tsx scripts/mail-receiver.ts & pids+=($!)
 "${TSX_SERVER[@]}" scripts/worker.ts & pids+=($!)
+if [ "$fake_payments" = 1 ]; then
+  PAYMENTS_PORT=$PAYMENTS_PORT PAYMENTS_WEBHOOK_URL="http://127.0.0.1:$PORT/api/payments/webhook" node_modules/.bin/tsx scripts/fake-payments.ts & pids+=($!)
+fi
 node node_modules/next/dist/bin/next start --hostname 127.0.0.1 --port "$PORT" & pids+=($!)
 wait_http "http://127.0.0.1:$PORT/sign-in" "the app"
 

@@ -10,10 +10,12 @@ export const NAV_BY_ROLE: Record<Role, NavItem[]> = {
   applicant: [
     { href: "/applications", label: "My applications" },
     { href: "/applications/new", label: "New application" },
+    { href: "/invoices", label: "Invoices" },
   ],
   technician: [
     { href: "/intake", label: "Intake" },
     { href: "/applications", label: "All applications" },
+    { href: "/invoices", label: "Invoices" },
   ],
   examiner: [
     { href: "/reviews", label: "My reviews" },
@@ -21,8 +23,14 @@ export const NAV_BY_ROLE: Record<Role, NavItem[]> = {
   ],
   supervisor: [
     { href: "/queue", label: "Queue" },
+    { href: "/queue/workload", label: "Workload and turnaround" },
     { href: "/reviews", label: "My reviews" },
     { href: "/applications", label: "All applications" },
+    { href: "/invoices", label: "Invoices" },
   ],
-  admin: [{ href: "/admin/users", label: "Users" }],
+  admin: [
+    { href: "/admin/users", label: "Users" },
+    { href: "/admin/settings", label: "Review clock" },
+    { href: "/admin/fees", label: "Fee schedule" },
+  ],
 };

@@ -9,7 +9,9 @@ import { applications, assignments, comments, documents, responses, reviewCycles
 import { DEPARTMENT } from "@/lib/department";
 import { env } from "@/lib/env";
 import { AppError, notFound, staleVersion } from "@/lib/errors";
+import { createReviewInvoice, voidOrRefundOnWithdraw } from "@/lib/fees/service";
 import { renderNotice } from "@/lib/mail/notices";
+import { dueDateFor } from "@/lib/review-clock/server";
 import type { ApplicationInput } from "@/lib/validations/application";
 import {
   checkAccess,
@@ -117,6 +119,12 @@ export async function fireEvent<E extends WorkflowEvent>(
     if (event === "accept") patch.acceptedAt = now;
     if (event === "return_incomplete") patch.returnReasons = (result.input as { reasons: string[] }).reasons;
     if (event === "approve" || event === "approve_with_conditions") patch.decidedAt = now;
+    // The review clock: a new cycle gets its due date; a decision or withdrawal clears it.
+    // Where payment is required before review, cycle 1's clock starts when the fee is paid (lib/payments/settle.ts).
+    const clockHeldForFee = event === "accept" && env().PAYMENT_REQUIRED_BEFORE_REVIEW;
+    const dueAt = effects.cycle && !clockHeldForFee ? await dueDateFor(tx, now, cycle) : null;
+    if (effects.cycle) patch.dueAt = dueAt;
+    if (["issue_corrections", "approve", "approve_with_conditions", "withdraw"].includes(event)) patch.dueAt = null;
     if (event === "approve_with_conditions") {
       patch.conditions = (result.input as { conditions: { text: string }[] }).conditions.map((c) => c.text);
     }
@@ -127,7 +135,7 @@ export async function fireEvent<E extends WorkflowEvent>(
     if (w[0].affectedRows !== 1) throw staleVersion();
     if (extra?.failAfterStateWrite) throw new Error("injected failure after the state write");
 
-    await applyCycleEffects(tx, row, result, cycle, examinerId, now);
+    await applyCycleEffects(tx, row, result, cycle, examinerId, now, dueAt);
     if (effects.assignment) {
       await tx.update(assignments).set({ endedAt: now }).where(and(eq(assignments.applicationId, row.id), isNull(assignments.endedAt)));
       await tx.insert(assignments).values({
@@ -154,6 +162,9 @@ export async function fireEvent<E extends WorkflowEvent>(
       detail: { from: result.from, to: result.to, input: result.input, ...(extra?.checklist ? { checklist: extra.checklist } : {}) },
       ip: extra?.ip,
     });
+    // Fees (lib/fees/service.ts): the invoice at acceptance; void or refund on withdrawal before review.
+    if (event === "accept") await createReviewInvoice(tx, row, now);
+    if (event === "withdraw") await voidOrRefundOnWithdraw(tx, row);
     await enqueueMail(tx, await noticeMails(tx, { ...row, ...patch } as typeof row, result, effects.notices, cycle, examinerId));
     return { state: result.to, version: row.version + 1 };
   });
@@ -184,9 +195,10 @@ async function applyCycleEffects(
   cycle: number,
   examinerId: number | null,
   now: Date,
+  dueAt: Date | null,
 ) {
   if (result.effects.cycle) {
-    await tx.insert(reviewCycles).values({ applicationId: row.id, number: cycle, examinerId, receivedAt: now });
+    await tx.insert(reviewCycles).values({ applicationId: row.id, number: cycle, examinerId, receivedAt: now, dueAt });
   }
   if (result.event === "reassign") {
     await tx.update(reviewCycles).set({ examinerId }).where(and(eq(reviewCycles.applicationId, row.id), eq(reviewCycles.number, row.cycle)));

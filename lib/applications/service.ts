@@ -262,6 +262,7 @@ async function noticeMails(
         conditions: input.conditions?.map((c) => c.text),
         openComments,
         reason: result.event === "withdraw" ? (input.reason ?? null) : null,
+        clockWaitsForFee: result.event === "accept" && env().PAYMENT_REQUIRED_BEFORE_REVIEW,
       });
       mails.push({
         dedupeKey: `app:${row.id}:v${row.version}:${n.template}:${p.id}`,

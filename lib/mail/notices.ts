@@ -13,6 +13,8 @@ export interface NoticeContext {
   conditions?: string[];
   openComments?: number;
   reason?: string | null;
+  /** the department starts the review clock only when the plan-review fee is paid */
+  clockWaitsForFee?: boolean;
 }
 
 const list = (items: string[] = []) => items.map((r, i) => `  ${i + 1}. ${r}`).join("\n");
@@ -33,7 +35,7 @@ const BODIES: Record<NoticeTemplate, (c: NoticeContext) => Mail> = {
   }),
   "intake.accepted": (c) => ({
     subject: `${c.number} accepted for plan review`,
-    text: `Application ${c.number} for ${c.siteAddress} is complete and accepted for plan review. Your plans examiner is ${c.examinerName ?? "being assigned"}.\n\nThe review clock started today. You can follow the review here: ${c.link}`,
+    text: `Application ${c.number} for ${c.siteAddress} is complete and accepted for plan review. Your plans examiner is ${c.examinerName ?? "being assigned"}.\n\n${c.clockWaitsForFee ? "The review clock starts when the plan-review fee is paid; the invoice is in the application." : "The review clock started today."} You can follow the review here: ${c.link}`,
   }),
   "review.assigned": (c) => ({
     subject: `Assigned to you: ${c.number} — ${c.siteAddress}`,

@@ -7,6 +7,7 @@ import { hashPassword } from "@/lib/auth/password";
 import { DEMO_FIRMS, DEMO_PASSWORD, DEMO_USERS } from "./demo-accounts";
 import { seedApplications } from "./seed-applications";
 import { seedHistory } from "./seed-history";
+import { seedChecks } from "@/lib/checks/seed";
 
 export async function seedBase(): Promise<void> {
   const database = db();
@@ -43,6 +44,8 @@ if (isMain) {
     await seedBase();
     const added = await seedApplications(db());
     console.log(`[seed] demo department ready: ${DEMO_USERS.length} accounts, password "${DEMO_PASSWORD}"; ${added ? `${added} demo applications added` : "demo applications already present"}`);
+    const checks = await seedChecks(db());
+    if (checks) console.log(`[seed] ${checks} demo deflection checks added`);
     const history = await seedHistory(db());
     console.log(`[seed] ${history ? `a year of review history added: ${history} applications` : "review history already present"}`);
   } catch (e) {

@@ -10,6 +10,7 @@ import { checkUploadName, DEFAULT_PDF_LIMITS, inspectPdf } from "@/lib/pdf/inspe
 import { createDiskStorage } from "@/lib/storage/disk";
 import { StorageError, type ObjectStorage, type StorageBody } from "@/lib/storage/storage";
 import { STATE_INFO } from "@/lib/workflow";
+import { markChecksForReverify } from "@/lib/checks/reverify";
 import { authorize } from "./service";
 import type { SessionUser } from "@/db/queries/users";
 
@@ -114,6 +115,8 @@ export async function uploadDocument(
           inspection.sheets.map((s) => ({ documentId: doc.id, applicationId, page: s.page, sheetNumber: s.sheetNumber, title: s.title.slice(0, 200) })),
         );
       }
+      // A new calculation package in a later cycle puts the checks made from earlier ones on "re-verify".
+      if (kind === "calculations") await markChecksForReverify(tx, applicationId, cycle);
       await recordAudit(tx, {
         actor,
         action: "document.uploaded",

@@ -2,8 +2,11 @@
 
 import Link from "next/link";
 import { useState } from "react";
+import { ApplicationChecks } from "@/components/checks/application-checks";
 import { SheetViewer } from "@/components/sheets/sheet-viewer";
 import { StateBadge } from "@/components/applications/state-badge";
+import { ApplicationInvoices } from "@/components/fees/application-invoices";
+import { ClockSummary } from "@/components/review-clock/clock-summary";
 import { ActionBar } from "./action-bar";
 import { CommentsPanel, type DraftPin } from "./comments-panel";
 import { DocumentsPanel } from "./documents-panel";
@@ -41,6 +44,11 @@ export function ApplicationWorkspace({ initial }: { initial: View }) {
           </div>
           <ActionBar view={view} />
         </div>
+        {view.cycles.length ? (
+          <div className="mt-3">
+            <ClockSummary cycles={view.cycles} state={app.state} holidays={view.holidays} />
+          </div>
+        ) : null}
         {app.state === "returned_incomplete" && app.returnReasons.length ? (
           <div className="mt-3 border-l-4 border-warn bg-warn-wash px-3 py-2 text-sm" role="status">
             <p className="font-medium">Returned as incomplete. Add what is missing, then submit again:</p>
@@ -62,6 +70,7 @@ export function ApplicationWorkspace({ initial }: { initial: View }) {
         ) : null}
       </header>
 
+      <ApplicationInvoices view={view} />
       <div className="grid gap-6 xl:grid-cols-[minmax(0,1fr)_26rem]">
         <section aria-label="Sheets" className="min-w-0">
           {pdfs.length ? (
@@ -119,6 +128,7 @@ export function ApplicationWorkspace({ initial }: { initial: View }) {
           ) : null}
         </section>
       </div>
+      <ApplicationChecks view={view} />
       <Timeline events={view.timeline} />
     </div>
   );

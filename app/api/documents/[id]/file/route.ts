@@ -16,7 +16,8 @@ export const GET = route<{ id: string }>(async (req, p) => {
   const disposition = req.nextUrl.searchParams.get("download") === "1" ? "attachment" : "inline";
   const ascii = doc.originalName.replace(/[^\x20-\x7e]/g, "_").replace(/["\\]/g, "_");
   const headers: Record<string, string> = {
-    "content-type": "application/pdf",
+    // Stored at upload from our own check of the bytes (PDF or a member model's JSON), never from the client.
+    "content-type": doc.contentType,
     "accept-ranges": "bytes",
     "content-disposition": `${disposition}; filename="${ascii}"; filename*=UTF-8''${encodeURIComponent(doc.originalName)}`,
     "x-content-type-options": "nosniff",

@@ -14,6 +14,8 @@ import {
   uniqueIndex,
   varchar,
 } from "drizzle-orm/mysql-core";
+import { ROLES } from "../lib/workflow/roles";
+import { STATES } from "../lib/workflow/states";
 
 // Every table has a primary key (replication and Galera need one) and ids are never assumed
 // consecutive. Rows that a transition changes carry `version` for conditional updates.
@@ -23,7 +25,8 @@ const ref = (name: string) => bigint(name, { mode: "number", unsigned: true });
 const at = (name: string) => datetime(name, { mode: "date", fsp: 3 });
 const createdAt = () => at("created_at").notNull().default(sql`CURRENT_TIMESTAMP(3)`);
 
-export const ROLE_VALUES = ["applicant", "technician", "examiner", "supervisor", "admin"] as const;
+// The workflow module owns the lists of roles and states; the columns follow them.
+export const ROLE_VALUES = ROLES;
 
 export const firms = mysqlTable("firms", {
   id: id(),
@@ -81,17 +84,7 @@ export const loginAttempts = mysqlTable(
   (t) => [index("login_attempts_email_idx").on(t.email, t.at), index("login_attempts_ip_idx").on(t.ip, t.at)],
 );
 
-export const APPLICATION_STATES = [
-  "draft",
-  "submitted",
-  "returned_incomplete",
-  "in_review",
-  "corrections_issued",
-  "resubmitted",
-  "approved",
-  "approved_with_conditions",
-  "withdrawn",
-] as const;
+export const APPLICATION_STATES = STATES;
 
 export const applications = mysqlTable(
   "applications",

@@ -109,7 +109,9 @@ export const applications = mysqlTable(
     returnReasons: json("return_reasons").$type<string[]>(),
     submittedAt: at("submitted_at"),
     acceptedAt: at("accepted_at"),
-    // Due date of the current review cycle (copied from review_cycles so the queue can sort on an index).
+    // Receipt and due date of the current review cycle, copied from review_cycles so the queue
+    // can filter and sort on an index at any size.
+    receivedAt: at("received_at"),
     dueAt: at("due_at"),
     decidedAt: at("decided_at"),
     version: int("version").notNull().default(1),
@@ -123,6 +125,8 @@ export const applications = mysqlTable(
     index("applications_examiner_idx").on(t.assignedExaminerId, t.state, t.id),
     index("applications_queue_due_idx").on(t.state, t.dueAt, t.id),
     index("applications_examiner_due_idx").on(t.assignedExaminerId, t.state, t.dueAt, t.id),
+    index("applications_queue_received_idx").on(t.state, t.receivedAt, t.id),
+    index("applications_examiner_received_idx").on(t.assignedExaminerId, t.state, t.receivedAt, t.id),
   ],
 );
 

@@ -270,11 +270,11 @@ function plan(p: Record<"owen" | "lena" | "tech" | "henrik" | "priya" | "gwen", 
       const cycleRow: Built["cycles"][number] = { number: cycle, examinerId: examiner.id, receivedAt: received, dueAt, decidedAt: null, outcome: null, version: 1 };
       b.cycles.push(cycleRow);
       if (cycle === 1) {
-        step(received, { state: "in_review", cycle, acceptedAt: received, assignedExaminerId: examiner.id, dueAt });
+        step(received, { state: "in_review", cycle, acceptedAt: received, assignedExaminerId: examiner.id, receivedAt: received, dueAt });
         log(received, p.tech, "application.accepted", `Accepted for plan review and assigned to ${examiner.name}; review cycle 1 started.`, { from: "submitted", to: "in_review", input: { examinerId: examiner.id } });
         b.assignments.push({ examinerId: examiner.id, assignedBy: p.tech.id, reason: "Assigned at intake", assignedAt: received });
       } else {
-        step(received, { state: "resubmitted", cycle, dueAt });
+        step(received, { state: "resubmitted", cycle, receivedAt: received, dueAt });
         log(received, applicant, "application.resubmitted", `Resubmitted with responses to ${openComments.length} comment${openComments.length === 1 ? "" : "s"}; review cycle ${cycle} started.`, { from: "corrections_issued", to: "resubmitted", input: {} });
         const begun = due(later(received, int(0, 1)));
         if (!begun) {

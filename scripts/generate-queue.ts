@@ -101,6 +101,7 @@ export async function generateQueue(database: Db, n: number, opts: { seed?: numb
         submittedAt: state === "draft" ? null : created,
         acceptedAt: cycle ? received : null,
         // As fireEvent leaves it: the due date of a running cycle; a decided one keeps it on the cycle only.
+        receivedAt: cycle ? received : null,
         dueAt: open ? dueAt : null,
         decidedAt: state === "approved" || state === "approved_with_conditions" ? decided : null,
         createdAt: created,

@@ -198,7 +198,7 @@ export async function startCycleClock(tx: Tx, applicationId: number, cycle: numb
   if (r[0].affectedRows !== 1) return false;
   await tx
     .update(applications)
-    .set({ dueAt })
+    .set({ receivedAt, dueAt })
     .where(and(eq(applications.id, applicationId), eq(applications.cycle, cycle), inArray(applications.state, ["in_review", "resubmitted"])));
   return true;
 }

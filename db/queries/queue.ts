@@ -52,7 +52,7 @@ function filterSql(f: QueueFilter, state: QueueState): SQL {
 function afterSql(sort: QueueSort, dir: SortDir, c: QueueCursor): SQL {
   const id = applications.id;
   if (sort === "number") return dir === "asc" ? gt(id, c.id) : lt(id, c.id);
-  const col = sort === "due" ? applications.dueAt : reviewCycles.receivedAt;
+  const col = sort === "due" ? applications.dueAt : applications.receivedAt;
   const k = c.key === null ? null : new Date(c.key);
   if (dir === "asc") {
     return k === null ? (or(and(isNull(col), gt(id, c.id)), isNotNull(col)) as SQL) : (or(gt(col, k), and(eq(col, k), gt(id, c.id))) as SQL);
@@ -63,7 +63,7 @@ function afterSql(sort: QueueSort, dir: SortDir, c: QueueCursor): SQL {
 function orderSql(sort: QueueSort, dir: SortDir): SQL[] {
   const by = dir === "asc" ? asc : desc;
   if (sort === "number") return [by(applications.id)];
-  return [by(sort === "due" ? applications.dueAt : reviewCycles.receivedAt), by(applications.id)];
+  return [by(sort === "due" ? applications.dueAt : applications.receivedAt), by(applications.id)];
 }
 
 const rowColumns = {
@@ -75,7 +75,7 @@ const rowColumns = {
   version: applications.version,
   examinerId: applications.assignedExaminerId,
   examinerName: examiner.name,
-  receivedAt: reviewCycles.receivedAt,
+  receivedAt: applications.receivedAt,
   dueAt: applications.dueAt,
 };
 
@@ -87,7 +87,6 @@ function stateSlice(database: Db | Tx, q: QueuePageQuery, state: QueueState) {
     .select(rowColumns)
     .from(applications)
     .leftJoin(examiner, eq(examiner.id, applications.assignedExaminerId))
-    .leftJoin(reviewCycles, and(eq(reviewCycles.applicationId, applications.id), eq(reviewCycles.number, applications.cycle)))
     .where(and(...where))
     .orderBy(...orderSql(q.sort, q.dir))
     .limit(q.limit + 1);

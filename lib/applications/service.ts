@@ -123,7 +123,10 @@ export async function fireEvent<E extends WorkflowEvent>(
     // Where payment is required before review, cycle 1's clock starts when the fee is paid (lib/payments/settle.ts).
     const clockHeldForFee = event === "accept" && env().PAYMENT_REQUIRED_BEFORE_REVIEW;
     const dueAt = effects.cycle && !clockHeldForFee ? await dueDateFor(tx, now, cycle) : null;
-    if (effects.cycle) patch.dueAt = dueAt;
+    if (effects.cycle) {
+      patch.dueAt = dueAt;
+      patch.receivedAt = now;
+    }
     if (["issue_corrections", "approve", "approve_with_conditions", "withdraw"].includes(event)) patch.dueAt = null;
     if (event === "approve_with_conditions") {
       patch.conditions = (result.input as { conditions: { text: string }[] }).conditions.map((c) => c.text);

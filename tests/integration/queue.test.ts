@@ -50,6 +50,8 @@ async function insertReview(f: { state?: "in_review" | "resubmitted" | "correcti
       assignedExaminerId: f.examinerId,
       submittedAt: new Date(received.getTime() - 3 * 86_400_000),
       acceptedAt: received,
+      // As fireEvent leaves it: the current cycle's receipt and due date on the application.
+      receivedAt: received,
       dueAt: f.dueAt ?? null,
     })
     .$returningId();

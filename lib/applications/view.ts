@@ -25,7 +25,8 @@ export async function applicationView(database: Db, actor: Actor, id: number) {
       responses: d.responses.filter((r) => r.commentId === c.id),
     }));
   const timeline = (await listAuditForApplication(database, id))
-    .filter((e) => !isApplicant || !e.action.startsWith("comment.") || e.action === "comment.responded")
+    // Applicants see the department's draft work (comments, checks) only once it is issued to them.
+    .filter((e) => !isApplicant || e.actorRole === "applicant" || !(e.action.startsWith("comment.") || e.action.startsWith("check.")))
     .map((e) => ({ id: e.id, at: e.at, action: e.action, summary: e.summary, actorName: e.actorName, actorRole: e.actorRole }));
   const r = d.row;
   return {

@@ -88,8 +88,11 @@ describe("applications through the workflow", () => {
       body: "Floor beam FB-3: show the live-load deflection check against L/360.",
     });
     expect(c.number).toBe(1);
-    // The applicant does not see a draft comment.
-    expect((await applicationView(db(), p.applicant, app.id)).comments).toHaveLength(0);
+    // The applicant does not see a draft comment, nor its trace in the history.
+    const before = await applicationView(db(), p.applicant, app.id);
+    expect(before.comments).toHaveLength(0);
+    expect(before.timeline.map((e) => e.action)).not.toContain("comment.added");
+    expect((await applicationView(db(), p.examiner, app.id)).timeline.map((e) => e.action)).toContain("comment.added");
     await fireEvent(db(), p.examiner, app.id, "issue_corrections", await version(app.id));
     expect((await applicationView(db(), p.applicant, app.id)).comments[0]).toMatchObject({ number: 1, status: "open" });
     expect((await getApplicationRow(db(), app.id))!.dueAt).toBeNull(); // the clock stops while corrections are out

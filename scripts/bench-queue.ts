@@ -102,7 +102,7 @@ const cases: [string, string, number?][] = [
   [`filtered: ${busiest.name}, overdue`, `/api/queue?limit=50&examinerId=${busiest.id}&due=overdue`],
   ["filtered: resubmitted, due this week", "/api/queue?limit=50&state=resubmitted&due=this_week"],
   ["first page by number", "/api/queue?limit=50&sort=number"],
-  ["first page by received (no index)", "/api/queue?limit=50&sort=received", Math.ceil(requests / 5)],
+  ["first page by received", "/api/queue?limit=50&sort=received", requests],
 ];
 
 // Warm-up: JIT, connection pool, buffer pool.

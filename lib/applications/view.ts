@@ -72,6 +72,7 @@ export async function applicationView(database: Db, actor: Actor, id: number) {
       resolve: can(actor, "comment.resolve", resource),
     },
     uploadLimits: UPLOAD_LIMITS,
+    viewer: { role: actor.role },
   };
 }
 

@@ -39,3 +39,27 @@ test("a drawing set is served safely, in ranges, and only to those who may see i
   expect((await anon.request.get(doc.url)).status()).toBe(401);
   await Promise.all([ctx.close(), other.close(), anon.close()]);
 });
+
+test("department staff export an application's audit trail as CSV; the applicant cannot", async ({ browser }) => {
+  const examiner = demoUser("examiner");
+  const ctx = await browser.newContext();
+  const page = await ctx.newPage();
+  await signIn(page, examiner.email, examiner.password);
+  const list = await (await page.request.get("/api/applications?scope=reviews&sort=number&dir=asc")).json();
+  const app = list.rows[0];
+  await page.goto(`/applications/${app.id}`);
+  const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("link", { name: "Export audit trail (CSV)" }).click()]);
+  expect(download.suggestedFilename()).toBe(`${app.number}-audit.csv`);
+  const res = await page.request.get(`/api/applications/${app.id}/audit`);
+  expect(res.headers()["content-type"]).toContain("text/csv");
+  const lines = (await res.text()).trim().split("\r\n");
+  expect(lines[0]).toBe("when (UTC),action,summary,by,role");
+  expect(lines.some((l) => l.includes("application.accepted"))).toBe(true);
+
+  const owen = demoUser("applicant");
+  const other = await browser.newContext();
+  const p2 = await other.newPage();
+  await signIn(p2, owen.email, owen.password);
+  expect((await p2.request.get(`/api/applications/${app.id}/audit`)).status()).toBe(403);
+  await Promise.all([ctx.close(), other.close()]);
+});

@@ -129,7 +129,7 @@ export function ApplicationWorkspace({ initial }: { initial: View }) {
         </section>
       </div>
       <ApplicationChecks view={view} />
-      <Timeline events={view.timeline} />
+      <Timeline events={view.timeline} exportUrl={view.viewer.role === "applicant" ? undefined : `/api/applications/${app.id}/audit`} />
     </div>
   );
 }

@@ -1,9 +1,16 @@
 import type { View } from "./types";
 
-export function Timeline({ events }: { events: View["timeline"] }) {
+export function Timeline({ events, exportUrl }: { events: View["timeline"]; exportUrl?: string }) {
   return (
     <section aria-labelledby="timeline-title" className="mt-8">
-      <h2 id="timeline-title" className="mb-3 text-lg font-semibold">History</h2>
+      <div className="mb-3 flex items-baseline justify-between">
+        <h2 id="timeline-title" className="text-lg font-semibold">History</h2>
+        {exportUrl ? (
+          <a href={exportUrl} className="text-sm text-accent underline-offset-2 hover:underline">
+            Export audit trail (CSV)
+          </a>
+        ) : null}
+      </div>
       <ol className="border-l border-rule-strong pl-4 text-sm">
         {events.map((e) => (
           <li key={e.id} className="relative mb-2">

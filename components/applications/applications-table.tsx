@@ -8,6 +8,7 @@ import { FormMessage } from "@/components/ui/field";
 import { fetchJson } from "@/lib/client/fetch-json";
 import { STATES, stateLabel, type State } from "@/lib/workflow";
 import { StateBadge } from "./state-badge";
+import { SortableTh } from "@/components/ui/sortable-th";
 
 interface Row {
   id: number;
@@ -140,22 +141,14 @@ export function ApplicationsTable({ scope, showApplicant = true, caption }: { sc
           <thead>
             {table.getHeaderGroups().map((hg) => (
               <tr key={hg.id} className="border-b border-rule-strong bg-paper text-left">
-                {hg.headers.map((h) => {
-                  const sortable = h.column.getCanSort() && h.column.id in SORT_KEYS;
-                  const dirn = h.column.getIsSorted();
-                  return (
-                    <th key={h.id} scope="col" aria-sort={dirn === "asc" ? "ascending" : dirn === "desc" ? "descending" : undefined} className="px-3 py-2 font-medium text-ink-soft">
-                      {sortable ? (
-                        <button type="button" onClick={h.column.getToggleSortingHandler()} className="inline-flex items-center gap-1 hover:text-ink">
-                          {flexRender(h.column.columnDef.header, h.getContext())}
-                          <span aria-hidden="true" className="text-xs">{dirn === "asc" ? "▲" : dirn === "desc" ? "▼" : "↕"}</span>
-                        </button>
-                      ) : (
-                        flexRender(h.column.columnDef.header, h.getContext())
-                      )}
-                    </th>
-                  );
-                })}
+                {hg.headers.map((h) => (
+                  <SortableTh
+                    key={h.id}
+                    header={h}
+                    direction={h.column.getIsSorted()}
+                    onSort={h.column.getCanSort() && h.column.id in SORT_KEYS ? h.column.getToggleSortingHandler() : undefined}
+                  />
+                ))}
               </tr>
             ))}
           </thead>

@@ -12,6 +12,7 @@ import { fetchJson } from "@/lib/client/fetch-json";
 import { formatDay, formatDayWithWeekday } from "@/lib/review-clock/format";
 import type { QueueApiPage, QueueApiRow } from "@/lib/review-clock/queue-row";
 import { ReassignDialog, useExaminers } from "./reassign-dialog";
+import { SortableTh } from "@/components/ui/sortable-th";
 
 export interface QueueFilters {
   examinerId: string;
@@ -228,19 +229,7 @@ export function QueueTable({ initial }: { initial: QueueFilters }) {
               <tr key={hg.id} className="border-b border-rule-strong bg-paper text-left">
                 {hg.headers.map((h) => {
                   const key = SORTABLE[h.column.id];
-                  const dirn = key && filters.sort === key ? filters.dir : null;
-                  return (
-                    <th key={h.id} scope="col" aria-sort={dirn === "asc" ? "ascending" : dirn === "desc" ? "descending" : undefined} className="px-3 py-2 font-medium text-ink-soft">
-                      {key ? (
-                        <button type="button" onClick={() => sortBy(h.column.id)} className="inline-flex items-center gap-1 hover:text-ink">
-                          {flexRender(h.column.columnDef.header, h.getContext())}
-                          <span aria-hidden="true" className="text-xs">{dirn === "asc" ? "▲" : dirn === "desc" ? "▼" : "↕"}</span>
-                        </button>
-                      ) : (
-                        flexRender(h.column.columnDef.header, h.getContext())
-                      )}
-                    </th>
-                  );
+                  return <SortableTh key={h.id} header={h} direction={key && filters.sort === key ? filters.dir : null} onSort={key ? () => sortBy(h.column.id) : undefined} />;
                 })}
               </tr>
             ))}

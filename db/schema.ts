@@ -285,6 +285,10 @@ export const outbox = mysqlTable(
     lastError: varchar("last_error", { length: 500 }),
     createdAt: createdAt(),
     sentAt: at("sent_at"),
+    // A worker's lease on a row it is sending: claimed by a conditional update (certified across a
+    // Galera cluster), cleared when it is marked; once claimed_until passes, another worker may resend.
+    claimToken: varchar("claim_token", { length: 36 }),
+    claimedUntil: at("claimed_until"),
   },
   (t) => [uniqueIndex("outbox_dedupe_uq").on(t.dedupeKey), index("outbox_pending_idx").on(t.status, t.nextAttemptAt, t.id)],
 );

@@ -5,7 +5,7 @@
 // the cycle keeps its own). Runs once (a settings marker); the holiday
 // calendar and default targets are added whenever missing.
 import { eq } from "drizzle-orm";
-import type { Db, Tx } from "./client";
+import { type Db, type Tx, withTransaction } from "./client";
 import { getReviewTargets, getSetting, insertHolidaysIfMissing, putSetting } from "./queries/settings";
 import { applications, assignments, auditEvents, comments, remindersSent, responses, reviewCycles, settings, users } from "./schema";
 import { applicationNumber } from "@/lib/applications/service";
@@ -138,7 +138,7 @@ export async function seedHistory(database: Db, now: Date = new Date()): Promise
   const rnd = mulberry32(Number(today.replaceAll("-", "")));
   const built = plan(people, cal, targets, now, rnd);
 
-  await database.transaction(async (tx) => {
+  await withTransaction(database, async (tx) => {
     const [marker] = await tx.select({ key: settings.key }).from(settings).where(eq(settings.key, MARKER)).for("update");
     if (marker) return;
     for (const b of built) {

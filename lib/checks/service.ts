@@ -1,7 +1,7 @@
 import "server-only";
 import type { Readable } from "node:stream";
 import type { z } from "zod";
-import type { Db, Tx } from "@/db/client";
+import { type Db, type Tx, withTransaction } from "@/db/client";
 import { getApplicationRow, toResource } from "@/db/queries/applications";
 import { recordAudit } from "@/db/queries/audit";
 import {
@@ -165,7 +165,7 @@ export async function saveCheck(database: Db, actor: Actor, applicationId: numbe
   // The server solves again: what is stored is its own result, never the browser's.
   const out = runSource(req.source, req.options);
   const cycle = purpose === "review" ? row.cycle : uploadCycle(row.state, row.cycle);
-  return database.transaction(async (tx) => {
+  return withTransaction(database, async (tx) => {
     const id = await insertCheck(tx, {
       applicationId,
       cycle,
@@ -447,7 +447,7 @@ export async function uploadMemberModel(database: Db, actor: Actor, applicationI
   const discard = () => storage().delete(stored.key).catch(() => false);
   try {
     const cycle = uploadCycle(row.state, row.cycle);
-    return await database.transaction(async (tx) => {
+    return await withTransaction(database, async (tx) => {
       const dup = await findDocumentBySha(tx, { applicationId, sha256: stored.sha256 });
       if (dup) throw new AppError("conflict", `This exact file is already in the application, as “${dup.name}” (cycle ${dup.cycle}). Nothing was added.`, { file: "Duplicate of an uploaded file." });
       const [doc] = await tx

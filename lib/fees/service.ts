@@ -1,5 +1,5 @@
 import "server-only";
-import type { Db, Tx } from "@/db/client";
+import { type Db, type Tx, withTransaction } from "@/db/client";
 import { getApplicationRow, toResource } from "@/db/queries/applications";
 import { recordAudit } from "@/db/queries/audit";
 import {
@@ -46,7 +46,7 @@ export async function getFeeSchedule(database: Db | Tx): Promise<FeeSchedule> {
 /** A new revision of the schedule. Invoices already issued keep the amounts and version they were issued with. */
 export async function saveFeeSchedule(database: Db, actor: Actor, input: FeeScheduleInput, ip?: string): Promise<FeeSchedule> {
   if (actor.role !== "admin") throw forbidden("Only an administrator changes the fee schedule.");
-  return database.transaction(async (tx) => {
+  return withTransaction(database, async (tx) => {
     const before = await getFeeSchedule(tx);
     const revision = before.revision + 1;
     const next: FeeSchedule = { ...input, revision, version: versionFor(revision) };
@@ -106,7 +106,7 @@ export async function createReviewInvoice(tx: Tx, row: AppRow, now: Date): Promi
 /** The fixed fee for reviewing the current cycle, when it is beyond the cycles the plan-review fee covers. */
 export async function createResubmittalInvoice(database: Db, actor: Actor, applicationId: number, ip?: string): Promise<{ id: number }> {
   if (actor.role !== "technician" && actor.role !== "supervisor") throw forbidden("Permit technicians and supervisors issue fee invoices.");
-  return database.transaction(async (tx) => {
+  return withTransaction(database, async (tx) => {
     const app = await lockApplicationRow(tx, applicationId);
     if (!app || checkAccess(actor, "application.view", toResource(app)) === "not_found") throw notFound("That application");
     if (app.state !== "resubmitted" && app.state !== "in_review") throw new AppError("conflict", "A resubmittal fee is charged while a resubmitted cycle is with the department.");
@@ -182,7 +182,7 @@ async function refundPaidInvoice(tx: Tx, inv: InvoiceRow, app: AppRow, now: Date
 /** Staff retry of a refund the provider refused at withdrawal. */
 export async function retryRefund(database: Db, actor: Actor, invoiceId: number): Promise<{ status: InvoiceStatus }> {
   if (actor.role !== "technician" && actor.role !== "supervisor") throw forbidden("Permit technicians and supervisors issue refunds.");
-  return database.transaction(async (tx) => {
+  return withTransaction(database, async (tx) => {
     const peek = await getInvoice(tx, invoiceId);
     if (!peek) throw notFound("That invoice");
     const app = await lockApplicationRow(tx, peek.applicationId);

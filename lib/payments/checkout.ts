@@ -1,6 +1,6 @@
 import "server-only";
 import type Stripe from "stripe";
-import type { Db } from "@/db/client";
+import { type Db, withTransaction } from "@/db/client";
 import { recordAudit } from "@/db/queries/audit";
 import { getInvoice, getUserContact, lockApplicationRow, lockInvoice, updateInvoiceIfVersion, type InvoiceRow } from "@/db/queries/invoices";
 import { getApplicationRow, toResource } from "@/db/queries/applications";
@@ -75,7 +75,7 @@ export async function startCheckout(database: Db, actor: Actor, invoiceId: numbe
   }
   if (!session.url) throw new AppError("internal", "The payment provider returned no checkout page.");
 
-  await database.transaction(async (tx) => {
+  await withTransaction(database, async (tx) => {
     if (session.id === inv.providerSessionId) return;
     const ok = await updateInvoiceIfVersion(tx, inv.id, inv.version, { providerSessionId: session.id });
     if (!ok) throw new AppError("conflict", "This invoice changed meanwhile. Reload and try again.");
@@ -116,7 +116,7 @@ export async function confirmCheckout(database: Db, actor: Actor, invoiceId: num
 
 async function settleReturnedSession(database: Db, invoiceId: number, session: Stripe.Checkout.Session): Promise<PaymentOutcome> {
   const after: AfterCommit[] = [];
-  const outcome = await database.transaction(async (tx) => {
+  const outcome = await withTransaction(database, async (tx) => {
     const peek = await getInvoice(tx, invoiceId);
     const app = peek ? await lockApplicationRow(tx, peek.applicationId) : undefined;
     const inv = await lockInvoice(tx, invoiceId);

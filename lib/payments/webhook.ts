@@ -1,6 +1,6 @@
 import "server-only";
 import type Stripe from "stripe";
-import type { Db, Tx } from "@/db/client";
+import { type Db, type Tx, withTransaction } from "@/db/client";
 import { findInvoiceIdByPayment, findInvoiceIdBySession, getInvoice, lockApplicationRow, lockInvoice, recordPaymentEventOnce } from "@/db/queries/invoices";
 import { paymentsClient, webhookSecret } from "./client";
 import { paymentIdOf } from "./provider";
@@ -60,7 +60,7 @@ async function locateInvoice(tx: Tx, object: Record<string, unknown>): Promise<L
 
 export async function handlePaymentEvent(database: Db, event: Stripe.Event, now = new Date()) {
   const after: AfterCommit[] = [];
-  const result = await database.transaction(async (tx) => {
+  const result = await withTransaction(database, async (tx) => {
     const object = event.data.object as unknown as Record<string, unknown>;
     const { invoiceId } = await locateInvoice(tx, object);
     const fresh = await recordPaymentEventOnce(tx, { providerEventId: event.id, type: event.type, invoiceId, payload: event });

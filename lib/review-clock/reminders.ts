@@ -1,5 +1,5 @@
 import "server-only";
-import type { Db } from "@/db/client";
+import { type Db, withTransaction } from "@/db/client";
 import { enqueueMail, type OutgoingMail } from "@/db/queries/outbox";
 import { listDueSoonWithoutReminder, listOverdueWithoutNotice, markReminderSent } from "@/db/queries/queue";
 import { listUsersByRole } from "@/db/queries/users";
@@ -43,7 +43,7 @@ export async function runReminders(database: Db, now: Date): Promise<ReminderRun
 
   async function once(applicationId: number, cycle: number, kind: "due_tomorrow" | "overdue", mails: OutgoingMail[]): Promise<boolean> {
     try {
-      await database.transaction(async (tx) => {
+      await withTransaction(database, async (tx) => {
         await markReminderSent(tx, applicationId, cycle, kind, now);
         await enqueueMail(tx, mails);
       });

@@ -1,5 +1,5 @@
 import "server-only";
-import type { Db, Tx } from "@/db/client";
+import { type Db, type Tx, withTransaction } from "@/db/client";
 import { recordAudit } from "@/db/queries/audit";
 import {
   deleteHoliday,
@@ -58,7 +58,7 @@ function assertAdmin(actor: Actor) {
 /** New targets apply to cycles that start from now on; a due date already given stands. */
 export async function saveReviewTargets(database: Db, actor: Actor, targets: ReviewTargets, ip?: string): Promise<void> {
   assertAdmin(actor);
-  await database.transaction(async (tx) => {
+  await withTransaction(database, async (tx) => {
     const before = await getReviewTargets(tx);
     await putSetting(tx, REVIEW_TARGETS_KEY, targets, actor.id);
     await recordAudit(tx, {
@@ -79,7 +79,7 @@ export async function saveReviewTargets(database: Db, actor: Actor, targets: Rev
  */
 export async function addHoliday(database: Db, actor: Actor, day: Day, name: string, ip?: string): Promise<{ created: boolean; moved: number }> {
   assertAdmin(actor);
-  return database.transaction(async (tx) => {
+  return withTransaction(database, async (tx) => {
     const created = await upsertHoliday(tx, day, name);
     const cal = await loadCalendar(tx);
     const affected = await listOpenReviewsDueBetween(tx, startOfDayInZone(day), endOfDayInZone(day));
@@ -111,7 +111,7 @@ export async function addHoliday(database: Db, actor: Actor, day: Day, name: str
 /** Removing a closure day does not pull due dates earlier: a date given to an applicant stands. */
 export async function removeHoliday(database: Db, actor: Actor, day: Day, ip?: string): Promise<void> {
   assertAdmin(actor);
-  await database.transaction(async (tx) => {
+  await withTransaction(database, async (tx) => {
     if (!(await deleteHoliday(tx, day))) throw new AppError("not_found", "That holiday was not found.");
     await recordAudit(tx, { actor, action: "settings.holiday_removed", entityType: "holiday", entityId: day, summary: `Holiday removed: ${day}.`, ip });
   });

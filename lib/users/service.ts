@@ -1,6 +1,6 @@
 import "server-only";
 import { and, eq, isNull } from "drizzle-orm";
-import type { Db } from "@/db/client";
+import { type Db, withTransaction } from "@/db/client";
 import { recordAudit } from "@/db/queries/audit";
 import { enqueueMail } from "@/db/queries/outbox";
 import { findUsableToken, getUserById } from "@/db/queries/users";
@@ -28,7 +28,7 @@ export async function inviteUser(
 ): Promise<{ id: number }> {
   const { token, hash } = newToken();
   try {
-    return await database.transaction(async (tx) => {
+    return await withTransaction(database, async (tx) => {
       const [created] = await tx
         .insert(users)
         .values({ email: input.email, name: input.name, role: input.role, status: "invited", firmId: input.firmId ?? null, title: input.title ?? "" })
@@ -72,7 +72,7 @@ export async function updateUser(
   ip?: string,
 ): Promise<void> {
   if (id === actor.id) throw new AppError("forbidden", "You cannot change your own role or deactivate yourself.");
-  await database.transaction(async (tx) => {
+  await withTransaction(database, async (tx) => {
     const before = await getUserById(tx, id);
     if (!before) throw notFound("That user");
     if (change.status === "active" && before.status === "invited") {
@@ -112,7 +112,7 @@ export async function requestPasswordReset(database: Db, email: string, ip?: str
     return;
   }
   const { token, hash } = newToken();
-  await database.transaction(async (tx) => {
+  await withTransaction(database, async (tx) => {
     await tx.insert(authTokens).values({ userId: u.id, purpose: "reset", tokenHash: hash, expiresAt: new Date(Date.now() + RESET_TTL_MS) });
     const mail = resetMail({ name: u.name, link: `${env().APP_URL}/reset/${token}` });
     await enqueueMail(tx, [{ dedupeKey: `reset:${hash}`, template: "reset", to: { address: u.email, name: u.name }, ...mail }]);
@@ -129,7 +129,7 @@ export async function setPasswordWithToken(
   ip?: string,
 ): Promise<{ email: string }> {
   const passwordHash = await hashPassword(password);
-  return database.transaction(async (tx) => {
+  return withTransaction(database, async (tx) => {
     const t = await findUsableToken(tx, hashToken(token), purpose);
     if (!t) throw new AppError("invalid_input", "This link has expired or was already used. Ask for a new one.");
     const used = await tx

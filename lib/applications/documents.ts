@@ -1,13 +1,13 @@
 import "server-only";
 import { and, eq } from "drizzle-orm";
 import type { Readable } from "node:stream";
-import type { Db } from "@/db/client";
+import { type Db, withTransaction } from "@/db/client";
 import { recordAudit } from "@/db/queries/audit";
 import { documents, sheets, DOCUMENT_KINDS } from "@/db/schema";
 import { env } from "@/lib/env";
 import { AppError, notFound } from "@/lib/errors";
 import { checkUploadName, DEFAULT_PDF_LIMITS, inspectPdf } from "@/lib/pdf/inspect";
-import { createDiskStorage } from "@/lib/storage/disk";
+import { storageFromEnv } from "@/lib/storage/from-env";
 import { StorageError, type ObjectStorage, type StorageBody } from "@/lib/storage/storage";
 import { STATE_INFO } from "@/lib/workflow";
 import { markChecksForReverify } from "@/lib/checks/reverify";
@@ -29,7 +29,7 @@ export const KIND_LABELS: Record<DocumentKind, string> = {
 
 const g = globalThis as unknown as { __spanproofStorage?: ObjectStorage };
 export function storage(): ObjectStorage {
-  g.__spanproofStorage ??= createDiskStorage({ rootDir: env().STORAGE_DIR });
+  g.__spanproofStorage ??= storageFromEnv(env());
   return g.__spanproofStorage;
 }
 
@@ -83,7 +83,7 @@ export async function uploadDocument(
     if (!inspection.ok) throw new AppError("invalid_input", inspection.message, { file: inspection.message });
 
     const cycle = uploadCycle(app.state, app.cycle);
-    return await database.transaction(async (tx) => {
+    return await withTransaction(database, async (tx) => {
       const [dup] = await tx
         .select({ name: documents.originalName, cycle: documents.cycle })
         .from(documents)

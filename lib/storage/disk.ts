@@ -1,14 +1,16 @@
 import "server-only";
-import { createHash, randomUUID } from "node:crypto";
+import { randomUUID } from "node:crypto";
 import { constants, createWriteStream } from "node:fs";
 import fs from "node:fs/promises";
 import path from "node:path";
-import { Transform, type Readable, type TransformCallback } from "node:stream";
+import type { Readable } from "node:stream";
 import { pipeline } from "node:stream/promises";
 import {
   assertStorageKey,
+  ByteMeter,
   isStorageKey,
   newStorageKey,
+  notFoundError,
   StorageError,
   toNodeReadable,
   tooLarge,
@@ -32,30 +34,6 @@ function isErrno(e: unknown, code: string): boolean {
   return typeof e === "object" && e !== null && (e as { code?: unknown }).code === code;
 }
 
-/** Counts and hashes bytes on the way to disk; fails as soon as the limit is passed. */
-class Meter extends Transform {
-  size = 0;
-  private readonly hash = createHash("sha256");
-
-  constructor(private readonly maxBytes: number) {
-    super();
-  }
-
-  override _transform(chunk: Buffer, _encoding: BufferEncoding, done: TransformCallback): void {
-    this.size += chunk.length;
-    if (this.size > this.maxBytes) {
-      done(tooLarge(this.maxBytes));
-      return;
-    }
-    this.hash.update(chunk);
-    done(null, chunk);
-  }
-
-  digest(): string {
-    return this.hash.digest("hex");
-  }
-}
-
 export function createDiskStorage(options: DiskStorageOptions): ObjectStorage & { purgeTemp(olderThanMs: number): Promise<number> } {
   const root = path.resolve(options.rootDir);
   const tempDir = path.join(root, TEMP_DIR);
@@ -70,7 +48,7 @@ export function createDiskStorage(options: DiskStorageOptions): ObjectStorage & 
     if (opts.signal?.aborted) throw new StorageError("aborted", "The upload was cancelled.");
     await fs.mkdir(tempDir, { recursive: true });
     const temp = path.join(tempDir, `${randomUUID()}.part`);
-    const meter = new Meter(maxBytes);
+    const meter = new ByteMeter(maxBytes);
     try {
       const out = createWriteStream(temp, { flags: "wx", mode: 0o640, flush: true });
       await pipeline(toNodeReadable(body), meter, out, opts.signal ? { signal: opts.signal } : {});
@@ -78,7 +56,7 @@ export function createDiskStorage(options: DiskStorageOptions): ObjectStorage & 
       const file = fileOf(key);
       await fs.mkdir(path.dirname(file), { recursive: true });
       await fs.rename(temp, file);
-      return { key, size: meter.size, sha256: meter.digest() };
+      return { key, size: meter.bytes, sha256: meter.digest() };
     } catch (e) {
       await fs.rm(temp, { force: true });
       if (e instanceof StorageError) throw e;
@@ -95,7 +73,7 @@ export function createDiskStorage(options: DiskStorageOptions): ObjectStorage & 
     try {
       handle = await fs.open(file, constants.O_RDONLY);
     } catch (e) {
-      if (isErrno(e, "ENOENT")) throw new StorageError("not_found", "No stored file has that key.");
+      if (isErrno(e, "ENOENT")) throw notFoundError();
       throw new StorageError("io", "The stored file could not be read.", undefined, { cause: e });
     }
     // The stream owns the descriptor and closes it when done or destroyed.

@@ -1,6 +1,6 @@
 import "server-only";
-import { randomUUID } from "node:crypto";
-import { Readable } from "node:stream";
+import { createHash, randomUUID } from "node:crypto";
+import { Readable, Transform, type TransformCallback } from "node:stream";
 import type { ReadableStream as WebReadableStream } from "node:stream/web";
 
 /** What `put` accepts: bytes in memory, a Node stream, a web stream (a Request body), or chunks. */
@@ -30,9 +30,10 @@ export interface GetOptions {
 }
 
 /**
- * Object storage as the application needs it. The disk driver implements it; an S3-style driver
- * can too (put → a streamed, multipart PutObject with the hash computed on the way through;
- * get with a Range header; keys unchanged).
+ * Object storage as the application needs it. Two drivers implement it: disk (lib/storage/disk.ts)
+ * and S3 (lib/storage/s3.ts: a streamed multipart upload with the hash computed on the way
+ * through, reads with a Range header, the same keys). tests/integration/storage-contract.test.ts
+ * holds both to the same behaviour.
  */
 export interface ObjectStorage {
   put(body: StorageBody, options?: PutOptions): Promise<StoredObject>;
@@ -69,6 +70,36 @@ function formatBytes(n: number): string {
 
 export const tooLarge = (limit: number) =>
   new StorageError("too_large", `The file is larger than the ${formatBytes(limit)} limit.`, limit);
+
+export const notFoundError = () => new StorageError("not_found", "No stored file has that key.");
+
+/** Counts and hashes bytes on the way to the store; fails as soon as the limit is passed. */
+export class ByteMeter extends Transform {
+  // Not "size": the S3 upload helper would take a `size` property for the body's total length.
+  bytes = 0;
+  /** Set once the body passed the limit, whatever error the store then reports. */
+  overLimit = false;
+  private readonly hash = createHash("sha256");
+
+  constructor(private readonly maxBytes: number) {
+    super();
+  }
+
+  override _transform(chunk: Buffer, _encoding: BufferEncoding, done: TransformCallback): void {
+    this.bytes += chunk.length;
+    if (this.bytes > this.maxBytes) {
+      this.overLimit = true;
+      done(tooLarge(this.maxBytes));
+      return;
+    }
+    this.hash.update(chunk);
+    done(null, chunk);
+  }
+
+  digest(): string {
+    return this.hash.digest("hex");
+  }
+}
 
 // "<2 hex>/<2 hex>/<uuid v4>": 42 characters, the first four hex digits of the UUID repeated as
 // two shard folders so no folder holds more than 1/65536 of the objects.

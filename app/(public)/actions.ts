@@ -7,6 +7,7 @@ import { db } from "@/db/client";
 import { signIn } from "@/lib/auth/config";
 import { clientIp } from "@/lib/auth/request-ip";
 import { AppError } from "@/lib/errors";
+import { refuseForgedAction } from "@/lib/security/action-guard";
 import { requestPasswordReset, setPasswordWithToken } from "@/lib/users/service";
 import { newPasswordSchema, resetRequestSchema, signInSchema } from "@/lib/validations/auth";
 
@@ -19,6 +20,8 @@ export interface FormState {
 const GENERIC = "That e-mail address and password do not match an active account.";
 
 export async function signInAction(_prev: FormState, form: FormData): Promise<FormState> {
+  const refused = await refuseForgedAction("signInAction");
+  if (refused) return { error: refused };
   const parsed = signInSchema.safeParse({ email: form.get("email"), password: form.get("password") });
   if (!parsed.success) return { error: GENERIC };
   try {
@@ -34,6 +37,8 @@ export async function signInAction(_prev: FormState, form: FormData): Promise<Fo
 }
 
 export async function requestResetAction(_prev: FormState, form: FormData): Promise<FormState> {
+  const refused = await refuseForgedAction("requestResetAction");
+  if (refused) return { error: refused };
   const parsed = resetRequestSchema.safeParse({ email: form.get("email") });
   if (!parsed.success) return { fields: { email: parsed.error.issues[0]?.message ?? "Enter your e-mail address." } };
   await requestPasswordReset(db(), parsed.data.email, clientIp(await headers()));
@@ -57,9 +62,13 @@ async function setPassword(purpose: "invite" | "reset", form: FormData): Promise
 }
 
 export async function acceptInviteAction(_prev: FormState, form: FormData): Promise<FormState> {
+  const refused = await refuseForgedAction("acceptInviteAction");
+  if (refused) return { error: refused };
   return setPassword("invite", form);
 }
 
 export async function resetPasswordAction(_prev: FormState, form: FormData): Promise<FormState> {
+  const refused = await refuseForgedAction("resetPasswordAction");
+  if (refused) return { error: refused };
   return setPassword("reset", form);
 }

@@ -1,6 +1,6 @@
 import "server-only";
 import { and, desc, eq, isNull, sql } from "drizzle-orm";
-import type { Db, Tx } from "@/db/client";
+import { type Db, type Tx, withTransaction } from "@/db/client";
 import { getApplicationRow, loadFacts, nextCommentNumber, toResource } from "@/db/queries/applications";
 import { recordAudit } from "@/db/queries/audit";
 import { enqueueMail, type OutgoingMail } from "@/db/queries/outbox";
@@ -11,6 +11,7 @@ import { env } from "@/lib/env";
 import { AppError, notFound, staleVersion } from "@/lib/errors";
 import { createReviewInvoice, voidOrRefundOnWithdraw } from "@/lib/fees/service";
 import { renderNotice } from "@/lib/mail/notices";
+import { tagRefusal } from "@/lib/security/refusal-audit";
 import { dueDateFor } from "@/lib/review-clock/server";
 import type { ApplicationInput } from "@/lib/validations/application";
 import {
@@ -34,14 +35,15 @@ export async function authorize(database: Db | Tx, actor: Actor, applicationId: 
   const row = await getApplicationRow(database, applicationId);
   if (!row) throw notFound("That application");
   const verdict = checkAccess(actor, action, toResource(row));
-  if (verdict === "not_found") throw notFound("That application");
-  if (verdict === "forbidden") throw new AppError("forbidden", "You cannot do that on this application now.");
+  // Tagged so the route handler audits the refusal after this transaction has rolled back.
+  if (verdict === "not_found") throw tagRefusal(notFound("That application"), "not_visible");
+  if (verdict === "forbidden") throw tagRefusal(new AppError("forbidden", "You cannot do that on this application now."), "forbidden");
   return row;
 }
 
 export async function createApplication(database: Db, actor: Actor, input: ApplicationInput, ip?: string) {
   if (actor.role !== "applicant") throw new AppError("forbidden", "Only applicants file applications.");
-  return database.transaction(async (tx) => {
+  return withTransaction(database, async (tx) => {
     const [created] = await tx
       .insert(applications)
       .values({ ...fields(input), applicantId: actor.id, firmId: actor.firmId })
@@ -68,7 +70,7 @@ function fields(input: ApplicationInput) {
 }
 
 export async function updateApplication(database: Db, actor: Actor, id: number, version: number, input: ApplicationInput, ip?: string) {
-  await database.transaction(async (tx) => {
+  await withTransaction(database, async (tx) => {
     const row = await authorize(tx, actor, id, "application.edit_draft");
     const r = await tx
       .update(applications)
@@ -95,7 +97,7 @@ export async function fireEvent<E extends WorkflowEvent>(
   input?: EventInputs[E],
   extra?: { checklist?: Record<string, boolean>; ip?: string; failAfterStateWrite?: boolean },
 ): Promise<{ state: string; version: number }> {
-  return database.transaction(async (tx) => {
+  return withTransaction(database, async (tx) => {
     const row = await getApplicationRow(tx, applicationId);
     if (!row) throw notFound("That application");
     if (checkAccess(actor, "application.view", toResource(row)) === "not_found") throw notFound("That application");
@@ -302,7 +304,7 @@ async function assertSheetOfApplication(tx: Tx, applicationId: number, sheetId: 
 export async function addComment(database: Db, actor: Actor, applicationId: number, input: CommentInput, ip?: string) {
   for (let attempt = 0; attempt < 3; attempt++) {
     try {
-      return await database.transaction(async (tx) => {
+      return await withTransaction(database, async (tx) => {
         const row = await authorize(tx, actor, applicationId, "comment.create");
         await assertSheetOfApplication(tx, applicationId, input.sheetId);
         const number = await nextCommentNumber(tx, applicationId);
@@ -335,7 +337,7 @@ export async function addComment(database: Db, actor: Actor, applicationId: numb
 }
 
 export async function editComment(database: Db, actor: Actor, applicationId: number, commentId: number, version: number, input: Partial<CommentInput>, ip?: string) {
-  await database.transaction(async (tx) => {
+  await withTransaction(database, async (tx) => {
     await authorize(tx, actor, applicationId, "comment.create");
     await assertSheetOfApplication(tx, applicationId, input.sheetId);
     const r = await tx
@@ -348,7 +350,7 @@ export async function editComment(database: Db, actor: Actor, applicationId: num
 }
 
 export async function deleteDraftComment(database: Db, actor: Actor, applicationId: number, commentId: number, ip?: string) {
-  await database.transaction(async (tx) => {
+  await withTransaction(database, async (tx) => {
     await authorize(tx, actor, applicationId, "comment.create");
     const r = await tx.delete(comments).where(and(eq(comments.id, commentId), eq(comments.applicationId, applicationId), eq(comments.status, "draft")));
     if (r[0].affectedRows !== 1) throw new AppError("conflict", "Only draft comments can be removed; issued comments stay on the record.");
@@ -365,7 +367,7 @@ export async function respondToComment(
   input: { body: string; changeReference: string; documentId?: number | null },
   ip?: string,
 ) {
-  await database.transaction(async (tx) => {
+  await withTransaction(database, async (tx) => {
     const row = await authorize(tx, actor, applicationId, "comment.respond");
     const [c] = await tx.select().from(comments).where(and(eq(comments.id, commentId), eq(comments.applicationId, applicationId))).limit(1);
     if (!c || c.status !== "open") throw new AppError("invalid_input", "Only open correction comments take a response.");
@@ -390,7 +392,7 @@ export async function judgeResponse(
   verdict: "resolved" | "not_resolved",
   ip?: string,
 ) {
-  await database.transaction(async (tx) => {
+  await withTransaction(database, async (tx) => {
     await authorize(tx, actor, applicationId, "comment.resolve");
     const [c] = await tx.select().from(comments).where(and(eq(comments.id, commentId), eq(comments.applicationId, applicationId))).limit(1);
     if (!c || c.status !== "open") throw new AppError("invalid_input", "Only open correction comments can be resolved.");

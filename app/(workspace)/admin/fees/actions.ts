@@ -9,11 +9,14 @@ import { requireRole } from "@/lib/auth/session";
 import { AppError } from "@/lib/errors";
 import { feeScheduleInputSchema, type FeeSchedule } from "@/lib/fees/schedule";
 import { saveFeeSchedule } from "@/lib/fees/service";
+import { refuseForgedAction } from "@/lib/security/action-guard";
 
 export type SaveFeeScheduleResult = { ok: true; schedule: FeeSchedule } | { ok: false; message: string; fields?: Record<string, string> };
 
 /** The administrator saves a new revision of the fee schedule. */
 export async function saveFeeScheduleAction(input: unknown): Promise<SaveFeeScheduleResult> {
+  const refused = await refuseForgedAction("saveFeeScheduleAction");
+  if (refused) return { ok: false, message: refused };
   try {
     const user = await requireRole("admin");
     const parsed = feeScheduleInputSchema.safeParse(input);

@@ -1,9 +1,10 @@
 // Back up the database and the stored files as one set:
-//   npx tsx scripts/backup.ts [DIR]      (default .data/backups/<UTC timestamp>; reads DATABASE_URL, STORAGE_DIR)
+//   npx tsx scripts/backup.ts [DIR]      (default .data/backups/<UTC timestamp>; reads MIGRATION_DATABASE_URL (else DATABASE_URL), STORAGE_DIR)
 import path from "node:path";
 import { backup } from "@/lib/backup";
 
-const url = process.env.DATABASE_URL;
+// The owner account: the app account may not read every table a full backup needs.
+const url = process.env.MIGRATION_DATABASE_URL || process.env.DATABASE_URL;
 if (!url) {
   console.error("[backup] DATABASE_URL is not set (source .env first)");
   process.exit(1);

@@ -41,7 +41,8 @@ trap cleanup INT TERM EXIT
 scripts/db.sh status >/dev/null 2>&1 || db_started=1
 scripts/db.sh start
 "${TSX_SERVER[@]}" scripts/migrate.ts
-"${TSX_SERVER[@]}" db/seed.ts
+# The seed writes as the owner; the app and the worker connect as DATABASE_URL (the app account).
+DATABASE_URL=${MIGRATION_DATABASE_URL:-$DATABASE_URL} "${TSX_SERVER[@]}" db/seed.ts
 
 if [ "${SKIP_BUILD:-0}" != 1 ]; then
   say "building the app (next build)"

@@ -5,9 +5,12 @@
 #   scripts/db.sh start|stop|status|sql [DB]
 #
 # Settings (environment): DB_DIR (default .data/db), DB_PORT (3307), DB_NAME (spanproof),
-# DB_TEST_NAME (spanproof_test), DB_USER (spanproof), DB_PASSWORD (spanproof-local).
+# DB_TEST_NAME (spanproof_test), DB_USER (spanproof, the owner: migrations, seed, backup),
+# DB_PASSWORD (spanproof-local), DB_APP_USER (spanproof_app, what the app and worker connect as;
+# scripts/migrate.ts gives it table-level grants), DB_APP_PASSWORD (spanproof-app-local).
 set -euo pipefail
 cd "$(dirname "$0")/.."
+. scripts/db-accounts.sh
 
 DB_DIR=${DB_DIR:-.data/db}
 DB_PORT=${DB_PORT:-3307}
@@ -15,6 +18,8 @@ DB_NAME=${DB_NAME:-spanproof}
 DB_TEST_NAME=${DB_TEST_NAME:-spanproof_test}
 DB_USER=${DB_USER:-spanproof}
 DB_PASSWORD=${DB_PASSWORD:-spanproof-local}
+DB_APP_USER=${DB_APP_USER:-spanproof_app}
+DB_APP_PASSWORD=${DB_APP_PASSWORD:-spanproof-app-local}
 mkdir -p "$DB_DIR"
 DB_DIR=$(cd "$DB_DIR" && pwd)
 SOCK="$DB_DIR/mysqld.sock"
@@ -23,7 +28,9 @@ PIDF="$DB_DIR/mysqld.pid"
 log() { printf '[db] %s\n' "$*"; }
 die() { printf '[db] error: %s\n' "$*" >&2; exit 1; }
 
-running() { [ -f "$PIDF" ] && kill -0 "$(cat "$PIDF")" 2>/dev/null; }
+# A killed server stays a zombie until init reaps it (seconds in some containers): not running.
+alive() { kill -0 "$1" 2>/dev/null && [[ "$(ps -o stat= -p "$1" 2>/dev/null)" != Z* ]]; }
+running() { [ -f "$PIDF" ] && alive "$(cat "$PIDF")"; }
 port_busy() { (exec 3<>"/dev/tcp/127.0.0.1/$1") 2>/dev/null; }
 as_root() { mariadb --no-defaults --socket="$SOCK" -uroot "$@"; }
 
@@ -70,22 +77,14 @@ start() {
 }
 
 provision() {
-  as_root <<SQL
-CREATE DATABASE IF NOT EXISTS \`$DB_NAME\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci;
-CREATE DATABASE IF NOT EXISTS \`$DB_TEST_NAME\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci;
-CREATE USER IF NOT EXISTS '$DB_USER'@'127.0.0.1' IDENTIFIED BY '$DB_PASSWORD';
-ALTER USER '$DB_USER'@'127.0.0.1' IDENTIFIED BY '$DB_PASSWORD';
-GRANT ALL PRIVILEGES ON \`$DB_NAME\`.* TO '$DB_USER'@'127.0.0.1';
-GRANT ALL PRIVILEGES ON \`$DB_TEST_NAME\`.* TO '$DB_USER'@'127.0.0.1';
-FLUSH PRIVILEGES;
-SQL
+  { accounts_sql; echo "FLUSH PRIVILEGES;"; } | as_root
 }
 
 stop() {
   if ! running; then log "not running"; return 0; fi
   local pid; pid=$(cat "$PIDF")
   kill -TERM "$pid"
-  for _ in $(seq 1 100); do kill -0 "$pid" 2>/dev/null || { log "stopped"; return 0; }; sleep 0.1; done
+  for _ in $(seq 1 100); do alive "$pid" || { log "stopped"; return 0; }; sleep 0.1; done
   die "MariaDB (pid $pid) did not stop within 10 s"
 }
 

@@ -15,6 +15,11 @@ ensure_system_packages() {
   local need=()
   command -v mariadbd >/dev/null 2>&1 || [ -x /usr/sbin/mariadbd ] || need+=(mariadb-server)
   if [ "${WITH_BROWSER:-0}" = 1 ]; then command -v chromium >/dev/null 2>&1 || need+=(chromium); fi
+  if [ "${WITH_CLUSTER:-0}" = 1 ]; then
+    [ -f /usr/lib/galera/libgalera_smm.so ] || need+=(galera-4)
+    command -v rsync >/dev/null 2>&1 || need+=(rsync)
+    command -v socat >/dev/null 2>&1 || need+=(socat)
+  fi
   if [ ${#need[@]} -gt 0 ]; then
     say "installing Debian packages: ${need[*]}"
     apt_install "${need[@]}"

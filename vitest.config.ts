@@ -28,6 +28,19 @@ export default defineConfig({
           setupFiles: ["tests/integration/setup.ts"],
         },
       },
+      {
+        resolve: { alias },
+        // Whole processes: production app servers (needs `npm run build` first), workers, private
+        // MariaDB instances that get killed. scripts/test.sh runs these after the build.
+        test: {
+          name: "system",
+          include: ["tests/system/**/*.test.ts"],
+          environment: "node",
+          fileParallelism: false,
+          testTimeout: 600_000,
+          hookTimeout: 300_000,
+        },
+      },
     ],
   },
 });

@@ -5,7 +5,7 @@
 //
 //   BENCH_URL (http://127.0.0.1:3000)  BENCH_EMAIL / BENCH_PASSWORD (the demo supervisor)
 //   BENCH_REQUESTS (300)  BENCH_CONCURRENCY (10)  BENCH_DEEP_PAGES (200: the deep cursor is that many pages in)
-export {};
+import { signInOverHttp } from "./http-session";
 
 const base = (process.env.BENCH_URL ?? "http://127.0.0.1:3000").replace(/\/$/, "");
 const email = process.env.BENCH_EMAIL ?? "supervisor@larkspurfalls.example";
@@ -15,27 +15,11 @@ const concurrency = Number(process.env.BENCH_CONCURRENCY ?? 10);
 const deepPages = Number(process.env.BENCH_DEEP_PAGES ?? 200);
 const GOAL_P95_MS = 100;
 
-const jar = new Map<string, string>();
-function keep(res: Response) {
-  for (const c of res.headers.getSetCookie()) {
-    const [pair] = c.split(";");
-    const i = pair!.indexOf("=");
-    jar.set(pair!.slice(0, i), pair!.slice(i + 1));
-  }
-}
-const cookie = () => [...jar].map(([k, v]) => `${k}=${v}`).join("; ");
+let session = "";
+const cookie = () => session;
 
 async function signIn() {
-  const csrf = await fetch(`${base}/api/auth/csrf`);
-  keep(csrf);
-  const { csrfToken } = (await csrf.json()) as { csrfToken: string };
-  const res = await fetch(`${base}/api/auth/callback/credentials`, {
-    method: "POST",
-    redirect: "manual",
-    headers: { "content-type": "application/x-www-form-urlencoded", cookie: cookie(), origin: base },
-    body: new URLSearchParams({ csrfToken, email, password, callbackUrl: `${base}/queue` }),
-  });
-  keep(res);
+  session = await signInOverHttp(base, email, password);
   const me = await fetch(`${base}/api/me`, { headers: { cookie: cookie() } });
   if (!me.ok) throw new Error(`sign-in as ${email} failed (${me.status}); is the demo seeded and the server running at ${base}?`);
 }

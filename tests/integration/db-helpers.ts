@@ -2,7 +2,7 @@ import { drizzle } from "drizzle-orm/mysql2";
 import { migrate } from "drizzle-orm/mysql2/migrator";
 import mysql from "mysql2/promise";
 import { db } from "@/db/client";
-import { users } from "@/db/schema";
+import { applications, reviewCycles, users } from "@/db/schema";
 import { hashPassword } from "@/lib/auth/password";
 import type { Role } from "@/lib/workflow/roles";
 
@@ -39,4 +39,47 @@ export async function makeUser(role: Role, email = `${role}-${Math.random().toSt
   hash ??= await hashPassword("correct horse battery");
   const [row] = await db().insert(users).values({ email, name, role, status: "active", passwordHash: hash }).$returningId();
   return { id: row!.id, email, name, role, password: "correct horse battery" };
+}
+
+let reviewSerial = 0;
+/**
+ * An open review as fireEvent leaves it once a cycle starts (the cycle's receipt and due date on
+ * the application and its review cycle), with chosen dates, for the queue and reminder tests.
+ */
+export async function insertOpenReview(f: {
+  numberPrefix: string;
+  state?: "in_review" | "resubmitted" | "corrections_issued" | "approved";
+  cycle?: number;
+  examinerId: number | null;
+  applicantId: number;
+  receivedAt?: Date;
+  dueAt?: Date | null;
+}): Promise<number> {
+  reviewSerial++;
+  const cycle = f.cycle ?? (f.state === "resubmitted" ? 2 : 1);
+  const received = f.receivedAt ?? new Date("2026-11-20T15:00:00Z");
+  const [row] = await db()
+    .insert(applications)
+    .values({
+      number: `${f.numberPrefix}-${String(reviewSerial).padStart(5, "0")}`,
+      applicantId: f.applicantId,
+      state: f.state ?? "in_review",
+      cycle,
+      workDescription: "Covered patio with a glulam beam",
+      siteAddress: `${100 + reviewSerial} Lantern Way`,
+      parcelNumber: "121-118-02",
+      occupancyGroup: "R-3",
+      constructionType: "VB",
+      valuationCents: 4_200_000,
+      dporName: "Owen Corbel, PE",
+      dporLicence: "PE-40211",
+      assignedExaminerId: f.examinerId,
+      submittedAt: new Date(received.getTime() - 3 * 86_400_000),
+      acceptedAt: received,
+      receivedAt: received,
+      dueAt: f.dueAt ?? null,
+    })
+    .$returningId();
+  await db().insert(reviewCycles).values({ applicationId: row!.id, number: cycle, examinerId: f.examinerId, receivedAt: received, dueAt: f.dueAt ?? null });
+  return row!.id;
 }

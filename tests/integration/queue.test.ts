@@ -6,7 +6,7 @@ import { countQueue, listQueuePage, queuePageSql, type QueuePageQuery, type Queu
 import { applications, assignments, auditEvents, holidays, outbox, reviewCycles } from "@/db/schema";
 import { addHoliday, dueDateFor, saveReviewTargets } from "@/lib/review-clock/server";
 import { generateQueue } from "@/scripts/generate-queue";
-import { makeUser, resetDb } from "./db-helpers";
+import { insertOpenReview, makeUser, resetDb } from "./db-helpers";
 
 // The route handlers run for real; only the session cookie is replaced by "who is signed in".
 const session = vi.hoisted(() => ({ uid: 0 }));
@@ -26,38 +26,7 @@ const reassign = async (body: unknown) => {
   return { status: res.status, body: (await res.json()) as Record<string, unknown> };
 };
 
-let serial = 0;
-/** An open review as fireEvent leaves it after "accept" (or "resubmit"), with chosen dates. */
-async function insertReview(f: { state?: "in_review" | "resubmitted" | "corrections_issued" | "approved"; examinerId: number | null; applicantId: number; receivedAt?: Date; dueAt?: Date | null }) {
-  serial++;
-  const cycle = f.state === "resubmitted" ? 2 : 1;
-  const received = f.receivedAt ?? new Date("2026-11-20T15:00:00Z");
-  const [row] = await db()
-    .insert(applications)
-    .values({
-      number: `LFB-QT-${String(serial).padStart(6, "0")}`,
-      applicantId: f.applicantId,
-      state: f.state ?? "in_review",
-      cycle,
-      workDescription: "Covered patio with a glulam beam",
-      siteAddress: `${100 + serial} Lantern Way`,
-      parcelNumber: "121-118-02",
-      occupancyGroup: "R-3",
-      constructionType: "VB",
-      valuationCents: 4_200_000,
-      dporName: "Owen Corbel, PE",
-      dporLicence: "PE-40211",
-      assignedExaminerId: f.examinerId,
-      submittedAt: new Date(received.getTime() - 3 * 86_400_000),
-      acceptedAt: received,
-      // As fireEvent leaves it: the current cycle's receipt and due date on the application.
-      receivedAt: received,
-      dueAt: f.dueAt ?? null,
-    })
-    .$returningId();
-  await db().insert(reviewCycles).values({ applicationId: row!.id, number: cycle, examinerId: f.examinerId, receivedAt: received, dueAt: f.dueAt ?? null });
-  return row!.id;
-}
+const insertReview = (f: Omit<Parameters<typeof insertOpenReview>[0], "numberPrefix">) => insertOpenReview({ numberPrefix: "LFB-QT", ...f });
 
 beforeEach(async () => {
   await resetDb();

@@ -3,35 +3,9 @@ import { beforeEach, describe, expect, it } from "vitest";
 import { closeDb, db } from "@/db/client";
 import { applications, holidays, outbox, remindersSent, reviewCycles, users } from "@/db/schema";
 import { runReminders } from "@/lib/review-clock/reminders";
-import { makeUser, resetDb } from "./db-helpers";
+import { insertOpenReview, makeUser, resetDb } from "./db-helpers";
 
-let serial = 0;
-/** An open review as fireEvent leaves it once a cycle starts, with a chosen due date. */
-async function insertReview(f: { state?: "in_review" | "resubmitted" | "corrections_issued"; examinerId: number | null; applicantId: number; dueAt: Date; cycle?: number }) {
-  serial++;
-  const cycle = f.cycle ?? 1;
-  const [row] = await db()
-    .insert(applications)
-    .values({
-      number: `LFB-RM-${String(serial).padStart(5, "0")}`,
-      applicantId: f.applicantId,
-      state: f.state ?? "in_review",
-      cycle,
-      workDescription: "Detached garage with bonus room, engineered roof trusses",
-      siteAddress: `${40 + serial} Heron Bend`,
-      parcelNumber: "118-004-33",
-      occupancyGroup: "R-3",
-      constructionType: "VB",
-      valuationCents: 9_800_000,
-      dporName: "Owen Corbel, PE",
-      dporLicence: "PE-40211",
-      assignedExaminerId: f.examinerId,
-      dueAt: f.dueAt,
-    })
-    .$returningId();
-  await db().insert(reviewCycles).values({ applicationId: row!.id, number: cycle, examinerId: f.examinerId, receivedAt: new Date("2026-11-20T15:00:00Z"), dueAt: f.dueAt });
-  return row!.id;
-}
+const insertReview = (f: Omit<Parameters<typeof insertOpenReview>[0], "numberPrefix">) => insertOpenReview({ numberPrefix: "LFB-RM", ...f });
 
 // Due dates are the last millisecond of a day in US Central time (UTC−6 in December).
 const endOf = (isoDay: string) => new Date(new Date(`${isoDay}T06:00:00Z`).getTime() + 86_400_000 - 1);

@@ -55,23 +55,25 @@ export async function runReminders(database: Db, now: Date): Promise<ReminderRun
     }
   }
 
+  // What both reminders say about the review, whoever receives them.
+  type Review = { id: number; number: string | null; siteAddress: string; workDescription: string; cycle: number; examinerName: string | null };
+  const about = (a: Review, dueDay: string) => ({
+    number: a.number ?? `#${a.id}`,
+    siteAddress: a.siteAddress,
+    workDescription: a.workDescription,
+    cycle: a.cycle,
+    dueDay,
+    examinerName: a.examinerName,
+    link: `${base}/applications/${a.id}`,
+    queueLink,
+  });
+
   const soon = await listDueSoonWithoutReminder(database, now, endOfDayInZone(shiftDays(today, LOOKAHEAD_DAYS)), BATCH);
   for (const a of soon) {
     if (!a.dueAt || !a.examinerId || !a.examinerEmail || a.examinerStatus !== "active") continue;
     const dueDay = dayInZone(a.dueAt);
     if (!remindersOwed(dueDay, today, cal).includes("due_tomorrow")) continue;
-    const number = a.number ?? `#${a.id}`;
-    const m = dueTomorrowMail({
-      recipientName: a.examinerName ?? "",
-      number,
-      siteAddress: a.siteAddress,
-      workDescription: a.workDescription,
-      cycle: a.cycle,
-      dueDay,
-      examinerName: a.examinerName,
-      link: `${base}/applications/${a.id}`,
-      queueLink,
-    });
+    const m = dueTomorrowMail({ recipientName: a.examinerName ?? "", ...about(a, dueDay) });
     const sent = await once(a.id, a.cycle, "due_tomorrow", [
       { dedupeKey: `reminder:${a.id}:c${a.cycle}:due_tomorrow:${a.examinerId}`, template: "reminder.due_tomorrow", to: { address: a.examinerEmail, name: a.examinerName ?? "" }, applicationId: a.id, ...m },
     ]);
@@ -85,7 +87,6 @@ export async function runReminders(database: Db, now: Date): Promise<ReminderRun
       if (!a.dueAt) continue;
       const dueDay = dayInZone(a.dueAt);
       if (!remindersOwed(dueDay, today, cal).includes("overdue")) continue;
-      const number = a.number ?? `#${a.id}`;
       const mails = supervisors.map((s): OutgoingMail => ({
         dedupeKey: `reminder:${a.id}:c${a.cycle}:overdue:${s.id}`,
         template: "reminder.overdue",
@@ -93,14 +94,7 @@ export async function runReminders(database: Db, now: Date): Promise<ReminderRun
         applicationId: a.id,
         ...overdueMail({
           recipientName: s.name,
-          number,
-          siteAddress: a.siteAddress,
-          workDescription: a.workDescription,
-          cycle: a.cycle,
-          dueDay,
-          examinerName: a.examinerName,
-          link: `${base}/applications/${a.id}`,
-          queueLink,
+          ...about(a, dueDay),
           businessDaysOverdue: businessDaysBetween(dueDay, today, cal),
         }),
       }));

@@ -5,6 +5,7 @@
 // the cycle keeps its own). Runs once (a settings marker); the holiday
 // calendar and default targets are added whenever missing.
 import { eq } from "drizzle-orm";
+import { seededRandom } from "@/lib/seeded-random";
 import { type Db, type Tx, withTransaction } from "./client";
 import { getReviewTargets, getSetting, insertHolidaysIfMissing, putSetting } from "./queries/settings";
 import { applications, assignments, auditEvents, comments, remindersSent, responses, reviewCycles, settings, users } from "./schema";
@@ -31,17 +32,6 @@ import {
 const MARKER = "demo_history";
 const APPLICATIONS = 340;
 
-// Deterministic per seed day: the same start gives the same department.
-function mulberry32(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 const STREETS = [
   "Alder Street", "Millrace Avenue", "Heron Bend", "Lantern Way", "Kiln Road", "Quarry Lane", "Tamarack Drive",
@@ -135,7 +125,8 @@ export async function seedHistory(database: Db, now: Date = new Date()): Promise
   const cal = makeCalendar(US_FEDERAL_HOLIDAYS.map((h) => h.day));
   const targets = await getReviewTargets(database);
   const today = dayInZone(now);
-  const rnd = mulberry32(Number(today.replaceAll("-", "")));
+  // Deterministic per seed day: the same start gives the same department.
+  const rnd = seededRandom(Number(today.replaceAll("-", "")));
   const built = plan(people, cal, targets, now, rnd);
 
   await withTransaction(database, async (tx) => {

@@ -3,6 +3,7 @@
 // Rows are the shape the workflow leaves (state, cycle, examiner, current cycle with its
 // received and due dates), without documents, comments or audit lines.
 import { and, eq, inArray, sql } from "drizzle-orm";
+import { randomInt, seededRandom } from "@/lib/seeded-random";
 import type { Db } from "@/db/client";
 import { applications, reviewCycles, users } from "@/db/schema";
 import { applicationNumber } from "@/lib/applications/service";
@@ -34,15 +35,8 @@ export interface GenerateResult {
 export async function generateQueue(database: Db, n: number, opts: { seed?: number; now?: Date } = {}): Promise<GenerateResult> {
   const started = performance.now();
   const now = opts.now ?? new Date();
-  let a = (opts.seed ?? 20_261_201) >>> 0;
-  const rnd = () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-  const int = (lo: number, hi: number) => lo + Math.floor(rnd() * (hi - lo + 1));
+  const rnd = seededRandom(opts.seed ?? 20_261_201);
+  const int = (lo: number, hi: number) => randomInt(rnd, lo, hi);
   const cal = makeCalendar(US_FEDERAL_HOLIDAYS.map((h) => h.day));
   const today = dayInZone(now);
 

@@ -21,19 +21,7 @@ import { signIn } from "./app";
 
 // ---- small tools ---------------------------------------------------------------------------
 
-/** Deterministic random numbers in [0, 1) (mulberry32), so a failing round can be replayed from its seed. */
-export function seededRandom(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
-export const randomInt = (random: () => number, min: number, maxInclusive: number) => min + Math.floor(random() * (maxInclusive - min + 1));
+export { randomInt, seededRandom } from "@/lib/seeded-random";
 
 /** A pool with the app's own settings (db/client.ts), for a database other than DATABASE_URL. */
 export function openDatabase(url: string, connectionLimit = 20): { database: Db; close: () => Promise<void> } {

@@ -2,6 +2,12 @@
 # The owner account (DB_USER) migrates, seeds and backs up; the app account (DB_APP_USER) starts
 # with no privileges and scripts/migrate.ts grants it table by table.
 # shellcheck shell=bash
+DB_NAME=${DB_NAME:-spanproof}
+DB_TEST_NAME=${DB_TEST_NAME:-spanproof_test}
+DB_USER=${DB_USER:-spanproof}
+DB_PASSWORD=${DB_PASSWORD:-spanproof-local}
+DB_APP_USER=${DB_APP_USER:-spanproof_app}
+DB_APP_PASSWORD=${DB_APP_PASSWORD:-spanproof-app-local}
 accounts_sql() {
   cat <<SQL
 CREATE DATABASE IF NOT EXISTS \`$DB_NAME\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci;

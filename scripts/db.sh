@@ -14,12 +14,6 @@ cd "$(dirname "$0")/.."
 
 DB_DIR=${DB_DIR:-.data/db}
 DB_PORT=${DB_PORT:-3307}
-DB_NAME=${DB_NAME:-spanproof}
-DB_TEST_NAME=${DB_TEST_NAME:-spanproof_test}
-DB_USER=${DB_USER:-spanproof}
-DB_PASSWORD=${DB_PASSWORD:-spanproof-local}
-DB_APP_USER=${DB_APP_USER:-spanproof_app}
-DB_APP_PASSWORD=${DB_APP_PASSWORD:-spanproof-app-local}
 mkdir -p "$DB_DIR"
 DB_DIR=$(cd "$DB_DIR" && pwd)
 SOCK="$DB_DIR/mysqld.sock"

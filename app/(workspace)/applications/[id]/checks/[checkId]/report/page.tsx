@@ -1,26 +1,16 @@
-import { notFound } from "next/navigation";
 import { ResultView } from "@/components/checks/result-view";
 import { ModelInputs } from "@/components/checks/model-inputs";
 import { VerdictBadge } from "@/components/checks/verdict-badge";
 import { PrintButton } from "@/components/ui/print-button";
-import { db } from "@/db/client";
-import { requirePageUser } from "@/lib/auth/session";
 import { CREEP_LABELS } from "@/lib/checks/claims";
-import { getCheck } from "@/lib/checks/service";
 import { DEPARTMENT } from "@/lib/department";
-import { AppError } from "@/lib/errors";
+import { loadCheckForPage } from "../load-check";
 
 export const metadata = { title: "Deflection check report" };
 
 // The printable check report, fit to attach to a correction letter: the stored check only.
 export default async function CheckReportPage({ params }: { params: Promise<{ id: string; checkId: string }> }) {
-  const user = await requirePageUser("applicant", "technician", "examiner", "supervisor");
-  const { id, checkId } = await params;
-  if (!/^\d{1,15}$/.test(id) || !/^\d{1,15}$/.test(checkId)) notFound();
-  const view = await getCheck(db(), user, Number(id), Number(checkId)).catch((e: unknown) => {
-    if (e instanceof AppError && e.code === "not_found") notFound();
-    throw e;
-  });
+  const view = await loadCheckForPage(params);
   const { check: c, application: a } = view;
   const date = (d: Date) => d.toLocaleDateString("en-US", { dateStyle: "long" });
   return (

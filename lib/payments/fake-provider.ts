@@ -5,6 +5,7 @@
 // the machine. Switches let tests hold, reorder, duplicate and replay deliveries.
 import { randomBytes } from "node:crypto";
 import http from "node:http";
+import type { AddressInfo } from "node:net";
 import Stripe from "stripe";
 
 type Obj = Record<string, unknown>;
@@ -30,6 +31,7 @@ export interface DeliveryMode {
 }
 
 export interface FakeProviderOptions {
+  /** 0 picks a free port; the returned url and port say which */
   port: number;
   host?: string;
   secretKey: string;
@@ -42,6 +44,7 @@ export interface FakeProviderOptions {
 
 export interface FakeProvider {
   url: string;
+  port: number;
   events: FakeEvent[];
   sessions: Map<string, Obj>;
   mode: DeliveryMode;
@@ -96,7 +99,8 @@ const money = (cents: number, currency: string) => `${currency === "usd" ? "$" :
 
 export async function startFakeProvider(opts: FakeProviderOptions): Promise<FakeProvider> {
   const host = opts.host ?? "127.0.0.1";
-  const base = `http://${host}:${opts.port}`;
+  // Set once listening, so a port of 0 (any free one) works; requests only arrive after that.
+  let base = `http://${host}:${opts.port}`;
   const sessions = new Map<string, Obj>();
   const intents = new Map<string, Obj>();
   const charges = new Map<string, Obj>();
@@ -493,9 +497,12 @@ ${s.cancel_url ? `<p><a href="${esc(s.cancel_url)}">Cancel and return to the dep
     server.once("error", reject);
     server.listen(opts.port, host, () => resolve());
   });
+  const port = (server.address() as AddressInfo).port;
+  base = `http://${host}:${port}`;
 
   return {
     url: base,
+    port,
     events,
     sessions,
     mode,

@@ -1,4 +1,4 @@
-import { describe, expect, it } from "vitest";
+import { describe, expect, it, vi } from "vitest";
 import { isUnreachable, parseHosts, retryableErrno, transactionRetries, withTransaction, type Db } from "@/db/client";
 import { parseEnv } from "@/lib/env";
 
@@ -73,15 +73,27 @@ describe("withTransaction", () => {
   });
 
   it("waits longer before each further attempt (jittered exponential backoff)", async () => {
+    // The delays asked of setTimeout, not wall-clock gaps: a loaded machine's timers fire late or,
+    // measured from a stale loop clock, a little early, which says nothing about the backoff.
     const { database } = fakeDb([deadlock(), deadlock(), deadlock()]);
-    const at: number[] = [];
-    const started = Date.now();
-    await withTransaction(database, async () => at.push(Date.now() - started), { baseDelayMs: 20 });
-    // Delays are 0.5–1.5 × 20, 40, 80 ms: at least 10, 20 and 40 ms apart.
-    expect(at).toHaveLength(4);
-    expect(at[1]! - at[0]!).toBeGreaterThanOrEqual(9);
-    expect(at[2]! - at[1]!).toBeGreaterThanOrEqual(19);
-    expect(at[3]! - at[2]!).toBeGreaterThanOrEqual(39);
+    const asked: number[] = [];
+    const realSetTimeout = globalThis.setTimeout;
+    const timer = vi.spyOn(globalThis, "setTimeout").mockImplementation(((fn: () => void, ms?: number) => {
+      asked.push(ms ?? 0);
+      return realSetTimeout(fn, 0);
+    }) as typeof setTimeout);
+    const jitter = vi.spyOn(Math, "random").mockReturnValueOnce(0).mockReturnValueOnce(0.5).mockReturnValueOnce(0.999);
+    try {
+      expect(await withTransaction(database, async () => "done", { baseDelayMs: 20 })).toBe("done");
+    } finally {
+      timer.mockRestore();
+      jitter.mockRestore();
+    }
+    // 0.5–1.5 × 20, 40, 80 ms, at the jitter drawn: lowest, middle, highest.
+    expect(asked).toHaveLength(3);
+    expect(asked[0]).toBeCloseTo(10, 6);
+    expect(asked[1]).toBeCloseTo(40, 6);
+    expect(asked[2]).toBeCloseTo(80 * 1.499, 6);
   });
 });
 

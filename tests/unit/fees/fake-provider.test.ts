@@ -13,9 +13,9 @@ let fake: FakeProvider;
 let stripe: Stripe;
 
 beforeAll(async () => {
-  const port = 20_000 + Math.floor(Math.random() * 20_000);
+  // Any free port: a fixed or random one can collide with whatever else the machine runs.
   fake = await startFakeProvider({
-    port,
+    port: 0,
     secretKey: KEY,
     webhookSecret: SECRET,
     deliver: async (payload, signature) => {
@@ -23,7 +23,7 @@ beforeAll(async () => {
       return 200;
     },
   });
-  stripe = new Stripe(KEY, { host: "127.0.0.1", port, protocol: "http", maxNetworkRetries: 0, telemetry: false });
+  stripe = new Stripe(KEY, { host: "127.0.0.1", port: fake.port, protocol: "http", maxNetworkRetries: 0, telemetry: false });
 });
 afterAll(() => fake.close());
 

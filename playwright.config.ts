@@ -27,7 +27,8 @@ export default defineConfig({
   retries: 0,
   timeout: 60_000,
   expect: { timeout: 10_000 },
-  reporter: [["list"]],
+  // scripts/test.sh also asks for a JSON report, from which it names the failures at the very end.
+  reporter: process.env.PLAYWRIGHT_REPORT_JSON ? [["list"], ["json", { outputFile: process.env.PLAYWRIGHT_REPORT_JSON }]] : [["list"]],
   use: {
     baseURL,
     trace: "retain-on-failure",

@@ -39,12 +39,16 @@ scripts/db.sh start
 
 failed=()
 step() { say "$1"; shift; "$@" || failed+=("$*"); }
+# Each test runner also writes a JSON report; the failures in them are listed last (see the end).
+reports=.data/test-reports
+rm -rf "$reports" && mkdir -p "$reports"
+vitest_project() { node_modules/.bin/vitest run --project "$1" --reporter=default --reporter=json --outputFile.json="$reports/$1.json"; }
 
 step "type-check" node_modules/.bin/tsc --noEmit
 step "lint" node_modules/.bin/eslint . --max-warnings=0
 step "dependency advisories" node_modules/.bin/tsx scripts/audit-deps.ts
-step "unit tests" node_modules/.bin/vitest run --project unit
-step "integration tests (MariaDB)" node_modules/.bin/vitest run --project integration
+step "unit tests" vitest_project unit
+step "integration tests (MariaDB)" vitest_project integration
 
 say "migrating and seeding the browser-test database"
 # The browser tests walk the demo from its first state: a fresh database every run.
@@ -52,13 +56,14 @@ scripts/db.sh sql <<<"DROP DATABASE IF EXISTS \`$DB_NAME\`; CREATE DATABASE \`$D
 "${TSX_SERVER[@]}" scripts/migrate.ts && DATABASE_URL=$MIGRATION_DATABASE_URL "${TSX_SERVER[@]}" db/seed.ts || failed+=("e2e database")
 say "building the app"
 if npm run --silent build >.data/test-build.log 2>&1; then
-  step "browser tests (Playwright, chromium)" node_modules/.bin/playwright test
-  step "system tests (several processes, crashes, races)" node_modules/.bin/vitest run --project system
+  step "browser tests (Playwright, chromium)" env PLAYWRIGHT_REPORT_JSON="$reports/browser.json" node_modules/.bin/playwright test
+  step "system tests (several processes, crashes, races)" vitest_project system
 else
   tail -40 .data/test-build.log; failed+=("next build")
 fi
 
 if [ ${#failed[@]} -gt 0 ]; then
+  node_modules/.bin/tsx scripts/test-summary.ts "$reports"/unit.json "$reports"/integration.json "$reports"/browser.json "$reports"/system.json || true
   printf '\n[spanproof] FAILED: %s\n' "${failed[@]}" >&2
   exit 1
 fi

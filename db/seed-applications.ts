@@ -3,10 +3,12 @@
 // Runs once: skipped when the demo applicant already has applications.
 import { eq } from "drizzle-orm";
 import { getApplicationRow } from "./queries/applications";
+import { lockApplicationRow, lockLiveInvoicesForApplication } from "./queries/invoices";
 import { applications, sheets, users } from "./schema";
-import type { Db } from "./client";
+import { withTransaction, type Db } from "./client";
 import { uploadDocument } from "@/lib/applications/documents";
 import { addComment, createApplication, fireEvent, respondToComment } from "@/lib/applications/service";
+import { applyPayment } from "@/lib/payments/settle";
 import { makeCalcPackage, makeDrawingSet } from "@/tests/fixtures/pdf/make";
 
 const SET = [
@@ -25,6 +27,20 @@ const CALCS = [
 ];
 
 type Actor = { id: number; role: "applicant" | "technician" | "examiner" | "supervisor" | "admin"; name: string; firmId: number | null };
+
+/**
+ * The applicant paid the open fee online: the settlement a confirmed payment runs (paid invoice,
+ * audit line, receipt, the held review clock started), so the story holds where the department
+ * reviews only after payment. The reference is the demo's own, not a provider's.
+ */
+async function paidOnline(database: Db, applicationId: number, reference: string): Promise<void> {
+  await withTransaction(database, async (tx) => {
+    const app = (await lockApplicationRow(tx, applicationId))!;
+    for (const inv of (await lockLiveInvoicesForApplication(tx, applicationId)).filter((i) => i.status === "open")) {
+      await applyPayment(tx, inv, app, { sessionId: null, paymentId: `${reference}-${inv.id}`, amountCents: inv.totalCents, currency: inv.currency, via: "return" }, new Date(), []);
+    }
+  });
+}
 
 async function actorByEmail(database: Db, email: string): Promise<Actor> {
   const [u] = await database.select().from(users).where(eq(users.email, email)).limit(1);
@@ -58,7 +74,7 @@ export async function seedApplications(database: Db): Promise<number> {
     return app;
   }
 
-  // 1. In review with Henrik, one draft comment.
+  // 1. In review with Henrik, one draft comment; the plan-review fee still unpaid.
   const a1 = await filed(owen, { workDescription: "Two-story wood-frame duplex, Building B of Riverbend Commons", siteAddress: "1250 Alder Street", parcelNumber: "114-220-07", valuation: 61_500_000 }, { occupancy: "R-2" });
   await fireEvent(database, owen, a1.id, "submit", await v(a1.id));
   await fireEvent(database, tech, a1.id, "accept", await v(a1.id), { examinerId: henrik.id }, { checklist: { drawings: true, calculations: true, designData: true, seal: true } });
@@ -77,6 +93,7 @@ export async function seedApplications(database: Db): Promise<number> {
   const a2 = await filed(lena, { workDescription: "Tenant improvement with new mezzanine framing, steel W-beams", siteAddress: "88 Kiln Road, Suite 4", parcelNumber: "207-031-12", valuation: 23_000_000 }, { occupancy: "B" });
   await fireEvent(database, lena, a2.id, "submit", await v(a2.id));
   await fireEvent(database, tech, a2.id, "accept", await v(a2.id), { examinerId: priya.id });
+  await paidOnline(database, a2.id, "demo-pay-kiln");
   const c1 = await addComment(database, priya, a2.id, { discipline: "Structural", codeSection: "IBC 1607.1", codeEdition: "2021 IBC", body: "Mezzanine live load: storage use requires 125 psf (Table 1607.1), not 50 psf as shown in the design criteria." });
   await addComment(database, priya, a2.id, { discipline: "Structural", codeSection: "IBC 1603.1.1", codeEdition: "2021 IBC", body: "Show the floor live loads on the construction documents as required for the mezzanine framing plan." });
   await fireEvent(database, priya, a2.id, "issue_corrections", await v(a2.id));
@@ -90,6 +107,7 @@ export async function seedApplications(database: Db): Promise<number> {
   const a4 = await filed(owen, { workDescription: "Covered patio with glulam beam and cantilevered rafters", siteAddress: "903 Lantern Way", parcelNumber: "121-118-02", valuation: 4_200_000 });
   await fireEvent(database, owen, a4.id, "submit", await v(a4.id));
   await fireEvent(database, tech, a4.id, "accept", await v(a4.id), { examinerId: henrik.id });
+  await paidOnline(database, a4.id, "demo-pay-lantern");
   await fireEvent(database, henrik, a4.id, "approve_with_conditions", await v(a4.id), { conditions: [{ text: "Deferred submittal: post base connector data before foundation inspection." }] });
 
   // 5. A draft still being prepared.

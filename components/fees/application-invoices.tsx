@@ -32,14 +32,22 @@ export function ApplicationInvoices({ view }: { view: View }) {
 
   const data = q.data;
   if (!data || (data.invoices.length === 0 && !data.resubmittalFee)) return null;
-  const waitingForFee = data.paymentRequiredBeforeReview && data.invoices.some((i) => i.purpose === "plan_review" && i.status === "open") && (app.state === "in_review" || app.state === "resubmitted");
+  // The fee the review waits for (the oldest open one), where the department reviews after payment.
+  const owed = data.invoices.filter((i) => i.status === "open").sort((a, b) => a.cycle - b.cycle)[0];
+  const waitingForFee = data.paymentRequiredBeforeReview && owed && (app.state === "in_review" || app.state === "resubmitted") ? owed : null;
 
   return (
     <section aria-labelledby="fees-title" className="mb-6 border border-rule bg-sheet px-4 py-3">
       <h2 id="fees-title" className="mb-2 text-lg font-semibold">Fees</h2>
       {waitingForFee ? (
         <FormMessage kind="info">
-          {data.canPay ? "Plan review begins when you pay the plan-review fee: the review clock starts on the day of payment." : "Waiting for the plan-review fee: the review clock starts when the applicant pays it."}
+          {waitingForFee.purpose === "plan_review"
+            ? data.canPay
+              ? "Plan review begins when you pay the plan-review fee: the review clock starts on the day of payment."
+              : "Waiting for the plan-review fee: the review clock starts, and review steps unlock, when the applicant pays it."
+            : data.canPay
+              ? `The review of your resubmittal (cycle ${waitingForFee.cycle}) begins when you pay the resubmittal fee: its review clock starts on the day of payment.`
+              : `Waiting for the resubmittal fee for cycle ${waitingForFee.cycle}: its review clock starts, and review steps unlock, when the applicant pays it.`}
         </FormMessage>
       ) : null}
       {pay.error ? <FormMessage kind="error">{pay.error.message}</FormMessage> : null}

@@ -4,7 +4,7 @@ import { alias } from "drizzle-orm/mysql-core";
 import type { ApplicationFacts, ApplicationResource } from "@/lib/workflow";
 import type { SessionUser } from "./users";
 import type { Db, Tx } from "../client";
-import { applications, comments, documents, firms, responses, reviewCycles, sheets, users } from "../schema";
+import { applications, comments, documents, firms, invoices, responses, reviewCycles, sheets, users } from "../schema";
 
 const examiner = alias(users, "examiner");
 const applicant = alias(users, "applicant");
@@ -19,8 +19,11 @@ export function toResource(row: { state: ApplicationFacts["state"]; applicantId:
   return { state: row.state, applicantId: row.applicantId, assignedExaminerId: row.assignedExaminerId };
 }
 
-/** Unresolved comments (draft or issued) with whether the applicant answered them this cycle. */
-export async function loadFacts(database: Db | Tx, row: typeof applications.$inferSelect): Promise<ApplicationFacts> {
+/**
+ * Unresolved comments (draft or issued) with whether the applicant answered them this cycle, and,
+ * where the department reviews only after payment (`feeBeforeReview`), the oldest unpaid fee.
+ */
+export async function loadFacts(database: Db | Tx, row: typeof applications.$inferSelect, { feeBeforeReview }: { feeBeforeReview: boolean }): Promise<ApplicationFacts> {
   const open = await database
     .select({ id: comments.id, number: comments.number, answered: sql<number>`(${responses.id} IS NOT NULL)` })
     .from(comments)
@@ -33,7 +36,18 @@ export async function loadFacts(database: Db | Tx, row: typeof applications.$inf
     assignedExaminerId: row.assignedExaminerId,
     cycle: row.cycle,
     openComments: open.map((c) => ({ id: c.id, number: c.number, answered: Boolean(Number(c.answered)) })),
+    unpaidFee: feeBeforeReview ? await oldestUnpaidFee(database, row.id) : null,
   };
+}
+
+async function oldestUnpaidFee(database: Db | Tx, applicationId: number): Promise<ApplicationFacts["unpaidFee"]> {
+  const [inv] = await database
+    .select({ id: invoices.id, number: invoices.number, totalCents: invoices.totalCents })
+    .from(invoices)
+    .where(and(eq(invoices.applicationId, applicationId), eq(invoices.status, "open")))
+    .orderBy(asc(invoices.cycle), asc(invoices.id))
+    .limit(1);
+  return inv ? { invoiceNumber: inv.number ?? `#${inv.id}`, totalCents: inv.totalCents } : null;
 }
 
 export type ListScope = "mine" | "intake" | "reviews" | "all";

@@ -102,7 +102,7 @@ export async function fireEvent<E extends WorkflowEvent>(
     if (!row) throw notFound("That application");
     if (checkAccess(actor, "application.view", toResource(row)) === "not_found") throw notFound("That application");
     if (row.version !== expectedVersion) throw staleVersion();
-    const facts = await loadFacts(tx, row);
+    const facts = await loadFacts(tx, row, { feeBeforeReview: env().PAYMENT_REQUIRED_BEFORE_REVIEW });
     const result: TransitionResult<E> = transition(actor, facts, event, input);
     await checkEventPreconditions(tx, row, result);
 
@@ -244,7 +244,7 @@ async function noticeMails(
   const link = `${env().APP_URL}/applications/${row.id}`;
   const examiner = await examinerName(tx, examinerId);
   const input = result.input as { reasons?: string[]; conditions?: { text: string }[]; reason?: string | null };
-  const openComments = (await loadFacts(tx, row)).openComments.length;
+  const openComments = (await loadFacts(tx, row, { feeBeforeReview: false })).openComments.length;
   const mails: OutgoingMail[] = [];
   for (const n of notices) {
     const people =

@@ -3,6 +3,7 @@ import type { Db } from "@/db/client";
 import { getApplicationDetail, loadFacts } from "@/db/queries/applications";
 import { listAuditForApplication } from "@/db/queries/audit";
 import { listHolidays } from "@/db/queries/settings";
+import { env } from "@/lib/env";
 import { notFound } from "@/lib/errors";
 import { availableActions, can, checkAccess, STATE_INFO, stateLabel, type Actor } from "@/lib/workflow";
 import { UPLOAD_LIMITS } from "./documents";
@@ -17,7 +18,7 @@ export async function applicationView(database: Db, actor: Actor, id: number) {
   const resource = { state: d.row.state, applicantId: d.row.applicantId, assignedExaminerId: d.row.assignedExaminerId };
   if (checkAccess(actor, "application.view", resource) === "not_found") throw notFound("That application");
   const isApplicant = actor.role === "applicant";
-  const facts = await loadFacts(database, d.row);
+  const facts = await loadFacts(database, d.row, { feeBeforeReview: env().PAYMENT_REQUIRED_BEFORE_REVIEW });
   const comments = d.comments
     .filter((c) => !isApplicant || c.status !== "draft")
     .map((c) => ({

@@ -27,6 +27,16 @@ export interface ApplicationFacts {
   /** current review cycle: 0 until accepted, then 1, 2, … (one per resubmittal) */
   cycle: number;
   openComments: readonly OpenComment[];
+  /**
+   * A fee invoice left unpaid where the department reviews only after payment
+   * (PAYMENT_REQUIRED_BEFORE_REVIEW); null when nothing is owed or payment may follow review.
+   */
+  unpaidFee: UnpaidFee | null;
+}
+
+export interface UnpaidFee {
+  invoiceNumber: string;
+  totalCents: number;
 }
 
 /** What the permission rules look at: who owns it, who reviews it, where it stands. */

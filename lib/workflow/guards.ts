@@ -2,6 +2,7 @@
 // message the examiner or applicant reads when it does not. Messages name what is missing.
 
 import type { ParsedInputs } from "@/lib/workflow/events";
+import { formatCents } from "@/lib/fees/money";
 import type { ApplicationFacts, OpenComment } from "@/lib/workflow/facts";
 
 /** "comment 3", "comments 2 and 5", "comments 2, 5 and 7" — in list order. */
@@ -56,4 +57,27 @@ export function everyOpenCommentCarried(
     `Carry every open comment as a condition, or resolve it, before approving with conditions: ` +
     `${describeComments(loose)} ${isAre(loose)} still open and not carried by any condition.`
   );
+}
+
+/**
+ * Review steps wait for the fee where the department requires payment first: the examiner may
+ * read and draft comments, but begins, issues and approves nothing until the invoice is paid.
+ */
+export function feePaid(facts: ApplicationFacts): string | null {
+  const fee = facts.unpaidFee;
+  if (!fee) return null;
+  return `Plan review waits for the fee: invoice ${fee.invoiceNumber} (${formatCents(fee.totalCents)}) is not paid yet, and this department reviews only after payment.`;
+}
+
+type Guard = (facts: ApplicationFacts) => string | null;
+
+/** The first guard that blocks, in the order given (the fee first: it is what unblocks the rest). */
+export function firstBlocking(...guards: Guard[]): Guard {
+  return (facts) => {
+    for (const g of guards) {
+      const blocked = g(facts);
+      if (blocked !== null) return blocked;
+    }
+    return null;
+  };
 }

@@ -18,6 +18,8 @@ import type { Actor, ApplicationFacts } from "@/lib/workflow/facts";
 import {
   everyOpenCommentAnswered,
   everyOpenCommentCarried,
+  feePaid,
+  firstBlocking,
   hasOpenComment,
   noOpenComments,
 } from "@/lib/workflow/guards";
@@ -134,7 +136,7 @@ export const TRANSITIONS: { readonly [E in WorkflowEvent]: TransitionRule<E> } =
     from: ["in_review"],
     to: "corrections_issued",
     by: ["examiner", "supervisor"],
-    guard: hasOpenComment,
+    guard: firstBlocking(feePaid, hasOpenComment),
     input: noInput,
     audit: {
       type: "review.corrections_issued",
@@ -163,6 +165,7 @@ export const TRANSITIONS: { readonly [E in WorkflowEvent]: TransitionRule<E> } =
     from: ["resubmitted"],
     to: "in_review",
     by: ["examiner", "supervisor"],
+    guard: feePaid,
     input: noInput,
     audit: {
       type: "review.begun",
@@ -176,7 +179,7 @@ export const TRANSITIONS: { readonly [E in WorkflowEvent]: TransitionRule<E> } =
     from: ["in_review"],
     to: "approved",
     by: ["examiner", "supervisor"],
-    guard: noOpenComments,
+    guard: firstBlocking(feePaid, noOpenComments),
     input: noInput,
     audit: {
       type: "review.approved",
@@ -190,6 +193,7 @@ export const TRANSITIONS: { readonly [E in WorkflowEvent]: TransitionRule<E> } =
     from: ["in_review"],
     to: "approved_with_conditions",
     by: ["examiner", "supervisor"],
+    guard: feePaid,
     input: parseConditions,
     inputGuard: everyOpenCommentCarried,
     audit: {

@@ -85,6 +85,16 @@ test("the technician accepts; the fee is computed with its arithmetic and the re
   expect(mail.text).toContain("85 × $6.25 for each additional $1,000.00 or fraction = $1,553.75");
   expect(mail.text).toContain("the review clock starts on the day of payment");
   await signOut(page);
+
+  // The assigned examiner may read the sheets, but review steps wait for the fee and say so.
+  await signIn(page, examiner.email, examiner.password);
+  await page.goto(`/applications/${appId}`);
+  const actions = page.getByRole("group", { name: "Actions on this application" });
+  await expect(actions.getByRole("button", { name: "Approve", exact: true })).toBeDisabled();
+  await expect(page.getByText(/Plan review waits for the fee: invoice INV-\d{2}-\d{5} \(\$1,021\.94\) is not paid yet/).first()).toBeVisible();
+  await expect(page.getByRole("region", { name: "Fees" })).toContainText("review steps unlock, when the applicant pays it");
+  await shot(page, "0-examiner-waits-for-fee");
+  await signOut(page);
 });
 
 test("walking away or a refused card leaves the invoice open with the reason; a second card pays it and review starts", async ({ page, request }) => {

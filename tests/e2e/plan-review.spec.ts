@@ -103,6 +103,33 @@ test("technician accepts and assigns a plans examiner, who is told", async ({ pa
   await signOut(page);
 });
 
+// The test department reviews only after payment (playwright.config.ts).
+test("review steps wait for the plan-review fee; the applicant pays it online and they unlock", async ({ page, request }) => {
+  await signIn(page, examiner.email, examiner.password);
+  await page.goto(appUrl);
+  const actions = page.getByRole("group", { name: "Actions on this application" });
+  await expect(actions.getByRole("button", { name: "Approve", exact: true })).toBeDisabled();
+  await expect(actions.getByRole("button", { name: "Issue corrections", exact: true })).toBeDisabled();
+  await expect(page.getByText(/Plan review waits for the fee: invoice INV-\d{2}-\d{5} \(\$[\d,.]+\) is not paid yet/).first()).toBeVisible();
+  await signOut(page);
+
+  await signIn(page, applicant.email, applicant.password);
+  await page.goto(appUrl);
+  await page.getByRole("region", { name: "Fees" }).getByRole("button", { name: "Pay online" }).click();
+  await page.waitForURL(/\/pay\/cs_test_/);
+  await page.getByRole("button", { name: /^Pay \$[\d,.]+$/ }).click();
+  await page.waitForURL(/checkout=success/);
+  await expect(page.locator("[data-invoice-status]")).toHaveAttribute("data-invoice-status", "paid");
+  await waitForMail(request, applicant.email, new RegExp(`^Receipt: INV-\\d{2}-\\d{5} paid, .* — ${number}$`));
+  await signOut(page);
+
+  await signIn(page, examiner.email, examiner.password);
+  await page.goto(appUrl);
+  await expect(actions.getByRole("button", { name: "Approve", exact: true })).toBeEnabled();
+  await expect(page.getByText("Plan review waits for the fee")).toHaveCount(0);
+  await signOut(page);
+});
+
 test("plans examiner pins a comment on a sheet and issues corrections; the applicant is told", async ({ page, request }) => {
   await signIn(page, examiner.email, examiner.password);
   await page.getByRole("link", { name: number }).click();
@@ -111,6 +138,9 @@ test("plans examiner pins a comment on a sheet and issues corrections; the appli
   const canvas = viewer.locator('canvas[data-state="rendered"]:visible').first();
   await expect(canvas).toBeVisible();
   await viewer.getByRole("button", { name: "Place comment pin" }).click();
+  // A raw mouse click does not scroll: bring the sheet into view first (the page above it grows
+  // with the review clock's table once the fee is paid).
+  await canvas.scrollIntoViewIfNeeded();
   const box = (await canvas.boundingBox())!;
   await page.mouse.click(box.x + box.width * 0.4, box.y + box.height * 0.5);
 

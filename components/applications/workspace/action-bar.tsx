@@ -52,6 +52,14 @@ export function ActionBar({ view }: { view: View }) {
   }
 
   if (view.actions.length === 0) return null;
+  // One line per reason: an unpaid fee, say, holds several steps and is said once for all of them.
+  const reasons = new Map<string, { id: string; labels: string[] }>();
+  for (const a of view.actions) {
+    if (!a.blockedBy) continue;
+    const r = reasons.get(a.blockedBy) ?? { id: `blocked-${a.event}`, labels: [] };
+    r.labels.push(a.label);
+    reasons.set(a.blockedBy, r);
+  }
   return (
     <div className="flex flex-col items-end gap-2">
       <div className="flex flex-wrap justify-end gap-2" role="group" aria-label="Actions on this application">
@@ -61,20 +69,18 @@ export function ActionBar({ view }: { view: View }) {
             variant={VARIANT[a.event] ?? "primary"}
             disabled={!a.allowed || fire.isPending}
             title={a.blockedBy}
-            aria-describedby={a.blockedBy ? `blocked-${a.event}` : undefined}
+            aria-describedby={a.blockedBy ? reasons.get(a.blockedBy)!.id : undefined}
             onClick={() => (needsDialog(a.event) ? setOpen(a.event) : void run(a.event))}
           >
             {a.label}
           </Button>
         ))}
       </div>
-      {view.actions
-        .filter((a) => a.blockedBy)
-        .map((a) => (
-          <p key={a.event} id={`blocked-${a.event}`} className="text-xs text-ink-soft">
-            {a.label}: {a.blockedBy}
-          </p>
-        ))}
+      {[...reasons].map(([reason, r]) => (
+        <p key={r.id} id={r.id} className="text-xs text-ink-soft">
+          {r.labels.join(", ")}: {reason}
+        </p>
+      ))}
       {error && !open ? <Problem error={error} /> : null}
       <EventDialog event={open} view={view} busy={fire.isPending} error={error} onClose={() => { setOpen(null); setError(null); }} onRun={run} />
     </div>

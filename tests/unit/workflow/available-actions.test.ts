@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 
-import { availableActions, type ApplicationFacts } from "@/lib/workflow";
+import { availableActions, transition, type ApplicationFacts } from "@/lib/workflow";
 import {
   ACTORS,
   ACTOR_KEYS,
@@ -40,6 +40,7 @@ describe("availableActions agrees with transition", () => {
       assignedExaminerId: examiner,
       cycle: examiner === null ? 0 : 1,
       openComments: COMMENT_SETS[comments],
+      unpaidFee: null,
     };
     const actor = ACTORS[key];
     const shown = new Map(availableActions(actor, facts).map((a) => [a.event, a]));
@@ -68,6 +69,7 @@ describe("availableActions agrees with transition", () => {
       assignedExaminerId: EXAMINER_ID,
       cycle: 1,
       openComments: [],
+      unpaidFee: null,
     };
     expect(availableActions(ACTORS.supervisor, facts).map((a) => a.event)).toEqual([
       "issue_corrections",
@@ -86,6 +88,7 @@ describe("the buttons people see", () => {
     assignedExaminerId: ["draft", "submitted", "returned_incomplete"].includes(state) ? null : EXAMINER_ID,
     cycle: 1,
     openComments,
+    unpaidFee: null,
   });
   const summary = (key: keyof typeof ACTORS, f: ApplicationFacts) =>
     availableActions(ACTORS[key], f).map((a) => (a.allowed ? a.event : `${a.event} (disabled: ${a.blockedBy})`));
@@ -127,6 +130,31 @@ describe("the buttons people see", () => {
 
   it("the examiner when the resubmittal arrives", () => {
     expect(summary("examiner", facts("resubmitted"))).toEqual(["begin_review"]);
+  });
+
+  // Where the department reviews only after payment, the fee is the first thing named.
+  const WAITS = "Plan review waits for the fee: invoice INV-26-00031 ($1,021.94) is not paid yet, and this department reviews only after payment.";
+  const unpaid = (f: ApplicationFacts): ApplicationFacts => ({ ...f, unpaidFee: { invoiceNumber: "INV-26-00031", totalCents: 102_194 } });
+
+  it("the examiner while the fee is unpaid: every review step disabled with the invoice and amount", () => {
+    expect(summary("examiner", unpaid(facts("in_review", [comment(9, 1, false)])))).toEqual([
+      `issue_corrections (disabled: ${WAITS})`,
+      `approve (disabled: ${WAITS})`,
+      `approve_with_conditions (disabled: ${WAITS})`,
+    ]);
+    expect(summary("examiner", unpaid(facts("resubmitted")))).toEqual([`begin_review (disabled: ${WAITS})`]);
+  });
+
+  it("an unpaid fee holds no one else up: the applicant may withdraw or resubmit, the supervisor reassign", () => {
+    expect(summary("owner", unpaid(facts("in_review")))).toEqual(["withdraw"]);
+    expect(summary("owner", unpaid(facts("corrections_issued", [comment(3, 3, true)])))).toEqual(["resubmit", "withdraw"]);
+    expect(summary("supervisor", unpaid(facts("in_review"))).filter((a) => !a.includes("disabled"))).toEqual(["reassign"]);
+  });
+
+  it("the server refuses a review step while the fee is unpaid, naming the invoice", () => {
+    expect(() => transition(ACTORS.examiner, unpaid(facts("in_review")), "approve")).toThrow(WAITS);
+    expect(() => transition(ACTORS.examiner, unpaid(facts("in_review")), "approve_with_conditions", { conditions: [{ text: "Deferred submittal: truss drawings." }] })).toThrow(WAITS);
+    expect(transition(ACTORS.examiner, facts("in_review"), "approve").to).toBe("approved");
   });
 
   it("nobody else sees a button on someone else's file, and no one on a closed file", () => {

@@ -80,6 +80,7 @@ export function passingFacts(state: State, event: WorkflowEvent): ApplicationFac
     assignedExaminerId: reviewed ? EXAMINER_ID : null,
     cycle: reviewed ? 1 : 0,
     openComments,
+    unpaidFee: null,
   };
 }
 

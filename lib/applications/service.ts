@@ -9,7 +9,7 @@ import { applications, assignments, comments, documents, responses, reviewCycles
 import { DEPARTMENT } from "@/lib/department";
 import { env } from "@/lib/env";
 import { AppError, notFound, staleVersion } from "@/lib/errors";
-import { createReviewInvoice, voidOrRefundOnWithdraw } from "@/lib/fees/service";
+import { createResubmittalInvoiceAtResubmit, createReviewInvoice, resubmittalFeeFor, voidOrRefundOnWithdraw } from "@/lib/fees/service";
 import { renderNotice } from "@/lib/mail/notices";
 import { tagRefusal } from "@/lib/security/refusal-audit";
 import { dueDateFor } from "@/lib/review-clock/server";
@@ -122,8 +122,11 @@ export async function fireEvent<E extends WorkflowEvent>(
     if (event === "return_incomplete") patch.returnReasons = (result.input as { reasons: string[] }).reasons;
     if (event === "approve" || event === "approve_with_conditions") patch.decidedAt = now;
     // The review clock: a new cycle gets its due date; a decision or withdrawal clears it.
-    // Where payment is required before review, cycle 1's clock starts when the fee is paid (lib/payments/settle.ts).
-    const clockHeldForFee = event === "accept" && env().PAYMENT_REQUIRED_BEFORE_REVIEW;
+    // A resubmittal beyond the cycles the plan-review fee covers owes the schedule's fixed fee.
+    const resubmittalFee = event === "resubmit" ? await resubmittalFeeFor(tx, cycle) : null;
+    // Where payment is required before review, a cycle with a fee to pay (cycle 1's plan-review
+    // fee, a later cycle's resubmittal fee) starts its clock when it is paid (lib/payments/settle.ts).
+    const clockHeldForFee = env().PAYMENT_REQUIRED_BEFORE_REVIEW && (event === "accept" || resubmittalFee !== null);
     const dueAt = effects.cycle && !clockHeldForFee ? await dueDateFor(tx, now, cycle) : null;
     if (effects.cycle) {
       patch.dueAt = dueAt;
@@ -167,8 +170,10 @@ export async function fireEvent<E extends WorkflowEvent>(
       detail: { from: result.from, to: result.to, input: result.input, ...(extra?.checklist ? { checklist: extra.checklist } : {}) },
       ip: extra?.ip,
     });
-    // Fees (lib/fees/service.ts): the invoice at acceptance; void or refund on withdrawal before review.
+    // Fees (lib/fees/service.ts): the invoice at acceptance and at a charged resubmittal; void or
+    // refund on withdrawal before review.
     if (event === "accept") await createReviewInvoice(tx, row, now);
+    if (resubmittalFee) await createResubmittalInvoiceAtResubmit(tx, row, cycle, resubmittalFee, now);
     if (event === "withdraw") await voidOrRefundOnWithdraw(tx, row);
     await enqueueMail(tx, await noticeMails(tx, { ...row, ...patch } as typeof row, result, effects.notices, cycle, examinerId));
     return { state: result.to, version: row.version + 1 };

@@ -35,10 +35,11 @@ function lineList(lines: Line[], totalCents: number): string {
 }
 
 export function invoiceIssuedMail(c: InvoiceMailContext & { paymentRequiredBeforeReview: boolean; purpose: "plan_review" | "resubmittal" }): Mail {
-  const when =
-    c.purpose === "plan_review" && c.paymentRequiredBeforeReview
+  const when = !c.paymentRequiredBeforeReview
+    ? "Please pay it before the review is decided; the review itself goes ahead meanwhile."
+    : c.purpose === "plan_review"
       ? "Plan review begins when this fee is paid: the review clock starts on the day of payment, not before."
-      : "Please pay it before the review is decided; the review itself goes ahead meanwhile.";
+      : "The review of your resubmittal begins when this fee is paid: its review clock starts on the day of payment, not before.";
   return {
     subject: `${c.applicationNumber}: ${c.purpose === "plan_review" ? "plan-review fee" : "resubmittal fee"} ${formatCents(c.totalCents)} — invoice ${c.invoiceNumber}`,
     text: dear(
@@ -48,10 +49,13 @@ export function invoiceIssuedMail(c: InvoiceMailContext & { paymentRequiredBefor
   };
 }
 
-export function receiptMail(c: InvoiceMailContext & { paidAt: Date; paymentReference: string; reviewDueAt: Date | null }): Mail {
-  const clock = c.reviewDueAt
-    ? `\n\nPlan review has started: the review clock started on the day of payment, and the first review is due by ${formatDayLong(dayInZone(c.reviewDueAt))}.`
-    : "";
+export function receiptMail(c: InvoiceMailContext & { paidAt: Date; paymentReference: string; reviewDueAt: Date | null; cycle: number }): Mail {
+  const due = c.reviewDueAt ? formatDayLong(dayInZone(c.reviewDueAt)) : "";
+  const clock = !c.reviewDueAt
+    ? ""
+    : c.cycle === 1
+      ? `\n\nPlan review has started: the review clock started on the day of payment, and the first review is due by ${due}.`
+      : `\n\nThe review of your resubmittal (cycle ${c.cycle}) has started: its review clock started on the day of payment, and it is due by ${due}.`;
   return {
     subject: `Receipt: ${c.invoiceNumber} paid, ${formatCents(c.totalCents)} — ${c.applicationNumber}`,
     text: dear(

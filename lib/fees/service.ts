@@ -103,6 +103,20 @@ export async function createReviewInvoice(tx: Tx, row: AppRow, now: Date): Promi
   return issueInvoice(tx, row, "plan_review", 1, quoteReviewFee(schedule, row.valuationCents), now, null);
 }
 
+/** The fixed fee owed for reviewing `cycle` under the current schedule; null within the cycles the plan-review fee covers. */
+export async function resubmittalFeeFor(tx: Tx, cycle: number): Promise<FeeQuote | null> {
+  return quoteResubmittalFee(await getFeeSchedule(tx), cycle);
+}
+
+/**
+ * Called by the workflow inside the `resubmit` transaction when the new cycle is beyond the
+ * covered ones: the resubmittal fee as an open invoice, an audit line and the invoice e-mail.
+ * Once per cycle (a staff member may have charged it already).
+ */
+export async function createResubmittalInvoiceAtResubmit(tx: Tx, row: AppRow, cycle: number, quote: FeeQuote, now: Date): Promise<number | null> {
+  return issueInvoice(tx, { ...row, cycle }, "resubmittal", cycle, quote, now, null);
+}
+
 /** The fixed fee for reviewing the current cycle, when it is beyond the cycles the plan-review fee covers. */
 export async function createResubmittalInvoice(database: Db, actor: Actor, applicationId: number, ip?: string): Promise<{ id: number }> {
   if (actor.role !== "technician" && actor.role !== "supervisor") throw forbidden("Permit technicians and supervisors issue fee invoices.");

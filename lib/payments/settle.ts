@@ -140,18 +140,18 @@ export async function applyPayment(tx: Tx, inv: InvoiceRow, app: AppRow, pay: Pa
   const reviewDueAt = await startHeldClock(tx, inv, app, now);
   const ctx = await invoiceMailContext(tx, inv, app);
   if (ctx) {
-    const m = receiptMail({ ...ctx, paidAt: now, paymentReference: pay.paymentId, reviewDueAt });
+    const m = receiptMail({ ...ctx, paidAt: now, paymentReference: pay.paymentId, reviewDueAt, cycle: inv.cycle });
     await enqueueMail(tx, [{ dedupeKey: `invoice:${inv.id}:receipt`, template: FEE_MAIL_TEMPLATES.receipt, to: ctx.to, applicationId: app.id, ...m }]);
   }
   return "paid";
 }
 
 /**
- * Where the department requires payment before review, acceptance leaves cycle 1 without a due
- * date; the payment starts it: received now, due by the target counted from today.
+ * Where the department requires payment before review, acceptance leaves cycle 1 (and a charged
+ * resubmittal its cycle) without a due date; the payment starts it: received now, due by the
+ * target counted from today.
  */
 async function startHeldClock(tx: Tx, inv: InvoiceRow, app: AppRow, now: Date): Promise<Date | null> {
-  if (inv.purpose !== "plan_review") return null;
   if (app.cycle !== inv.cycle || (app.state !== "in_review" && app.state !== "resubmitted")) return null;
   const cycle = await getReviewCycle(tx, app.id, inv.cycle);
   if (!cycle || cycle.dueAt || cycle.decidedAt) return null;
@@ -163,7 +163,7 @@ async function startHeldClock(tx: Tx, inv: InvoiceRow, app: AppRow, now: Date): 
     entityType: "application",
     entityId: app.id,
     applicationId: app.id,
-    summary: `Plan-review fee paid: the review clock for cycle ${inv.cycle} started, due ${formatDayLong(dayInZone(due))}.`,
+    summary: `${inv.purpose === "resubmittal" ? "Resubmittal fee" : "Plan-review fee"} paid: the review clock for cycle ${inv.cycle} started, due ${formatDayLong(dayInZone(due))}.`,
     detail: { invoiceId: inv.id, receivedAt: now.toISOString(), dueAt: due.toISOString() },
   });
   return due;

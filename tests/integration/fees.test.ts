@@ -1,9 +1,9 @@
 import { eq } from "drizzle-orm";
 import { NextRequest } from "next/server";
-import { afterAll, beforeAll, beforeEach, describe, expect, it, vi } from "vitest";
+import { afterAll, beforeEach, describe, expect, it, vi } from "vitest";
 import { db } from "@/db/client";
 import { applications, auditEvents, comments, invoices, outbox, reviewCycles } from "@/db/schema";
-import { fireEvent } from "@/lib/applications/service";
+import { addComment, fireEvent, judgeResponse, respondToComment } from "@/lib/applications/service";
 import { DEMO_FEE_SCHEDULE } from "@/lib/fees";
 import { getFeeSchedule, saveFeeSchedule } from "@/lib/fees/service";
 import { startCheckout } from "@/lib/payments/checkout";
@@ -14,13 +14,19 @@ import { makeUser, resetDb } from "./db-helpers";
 // Fees through the workflow: the invoice at acceptance, the schedule an administrator edits,
 // void or refund on withdrawal, resubmittal fees, and who may see what through the real route
 // handlers. This department lets review start before payment (the default).
-const PORT = 31_000 + Math.floor(Math.random() * 9_000);
 vi.hoisted(() => {
   process.env.PAYMENT_REQUIRED_BEFORE_REVIEW = "false";
   process.env.STRIPE_SECRET_KEY = "sk_test_integration_fees_0001";
   process.env.STRIPE_WEBHOOK_SECRET = "whsec_integration_fees_0001";
 });
-process.env.PAYMENTS_API_URL = `http://127.0.0.1:${PORT}`;
+// The fake listens on any free port; the app's SDK is pointed at it before the routes load.
+const fake: FakeProvider = await startFakeProvider({
+  port: 0,
+  secretKey: process.env.STRIPE_SECRET_KEY!,
+  webhookSecret: process.env.STRIPE_WEBHOOK_SECRET!,
+  deliver: async (payload, signature) => (await receiveWebhook(db(), payload, signature)).status,
+});
+process.env.PAYMENTS_API_URL = fake.url;
 
 const session = vi.hoisted(() => ({ uid: 0 }));
 vi.mock("@/lib/auth/config", () => ({ auth: async () => (session.uid ? { uid: session.uid, sv: 1 } : null) }));
@@ -41,15 +47,6 @@ async function call<P>(handler: (req: NextRequest, ctx: { params: Promise<P> }) 
   return { status: res.status, body: (await res.json()) as Record<string, unknown> };
 }
 
-let fake: FakeProvider;
-beforeAll(async () => {
-  fake = await startFakeProvider({
-    port: PORT,
-    secretKey: process.env.STRIPE_SECRET_KEY!,
-    webhookSecret: process.env.STRIPE_WEBHOOK_SECRET!,
-    deliver: async (payload, signature) => (await receiveWebhook(db(), payload, signature)).status,
-  });
-});
 afterAll(() => fake.close());
 beforeEach(async () => {
   await fake.idle();
@@ -219,6 +216,39 @@ describe("withdrawal before review starts", () => {
 });
 
 describe("resubmittal fees beyond the included cycles", () => {
+  it("resubmitting into cycle 4 issues the fixed fee itself, once, and review goes on meanwhile", async () => {
+    const p = await people();
+    const id = await submitted(p);
+    await accept(p, id);
+    // Three rounds of corrections and resubmittal, through the workflow: cycles 2 and 3 are covered.
+    for (let round = 1; round <= 3; round++) {
+      const c = await addComment(db(), p.examiner, id, { discipline: "Structural", codeSection: "IBC 1604.3", codeEdition: "2021 IBC", body: `Round ${round}: show the D+L deflection check for FB-3.` });
+      await fireEvent(db(), p.examiner, id, "issue_corrections", (await appRow(id)).version);
+      await respondToComment(db(), p.applicant, id, c.id, { body: `Round ${round}: added.`, changeReference: `Calc p. ${round + 6}` });
+      await fireEvent(db(), p.applicant, id, "resubmit", (await appRow(id)).version);
+      const fees = (await invoicesOf(id)).filter((i) => i.purpose === "resubmittal");
+      expect(fees.map((f) => f.cycle), `after resubmittal ${round}`).toEqual(round < 3 ? [] : [4]);
+      if (round < 3) {
+        await fireEvent(db(), p.examiner, id, "begin_review", (await appRow(id)).version);
+        await judgeResponse(db(), p.examiner, id, c.id, "resolved");
+      }
+    }
+    const fee = (await invoicesOf(id)).find((i) => i.purpose === "resubmittal")!;
+    expect(fee).toMatchObject({ cycle: 4, status: "open", totalCents: DEMO_FEE_SCHEDULE.resubmittal.feeCents });
+    const issued = (await mail("fees.invoice_issued")).filter((m) => m.subject.includes("resubmittal fee"));
+    expect(issued).toHaveLength(1);
+    expect(issued[0]!.textBody).toContain("Please pay it before the review is decided; the review itself goes ahead meanwhile.");
+    const [audit] = (await audits("invoice.issued")).filter((e) => e.entityId === String(fee.id));
+    expect(audit!.summary).toBe(`${fee.number} issued: resubmittal review fee $180.00 (fee schedule LF-FEES-r1).`);
+    // This department does not wait for payment: cycle 4 has its due date and the examiner begins.
+    expect((await appRow(id)).dueAt).not.toBeNull();
+    await fireEvent(db(), p.examiner, id, "begin_review", (await appRow(id)).version);
+    // Staff cannot charge it a second time.
+    session.uid = p.tech.id;
+    const again = await call(appInvoicesRoute.POST, `/api/applications/${id}/invoices`, { method: "POST", body: { purpose: "resubmittal" }, params: { id: String(id) } });
+    expect(again).toMatchObject({ status: 409, body: { error: { message: "Cycle 4 already has its resubmittal fee invoice." } } });
+  });
+
   it("staff charge the fixed fee for cycle 4, once; cycle 2 is covered", async () => {
     const p = await people();
     const id = await submitted(p);

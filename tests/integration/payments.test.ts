@@ -1,11 +1,12 @@
 import { and, eq } from "drizzle-orm";
 import { NextRequest } from "next/server";
 import Stripe from "stripe";
-import { afterAll, beforeAll, beforeEach, describe, expect, it, vi } from "vitest";
+import { afterAll, beforeEach, describe, expect, it, vi } from "vitest";
 import { db } from "@/db/client";
 import { applications, auditEvents, invoices, outbox, paymentEvents, reviewCycles } from "@/db/schema";
-import { fireEvent } from "@/lib/applications/service";
-import { invoiceDetail } from "@/lib/fees/service";
+import { addComment, fireEvent, respondToComment } from "@/lib/applications/service";
+import { DEMO_FEE_SCHEDULE } from "@/lib/fees";
+import { invoiceDetail, saveFeeSchedule } from "@/lib/fees/service";
 import { startFakeProvider, type FakeProvider } from "@/lib/payments/fake-provider";
 import { confirmCheckout, startCheckout } from "@/lib/payments/checkout";
 import { makeUser, resetDb } from "./db-helpers";
@@ -13,14 +14,25 @@ import { makeUser, resetDb } from "./db-helpers";
 // Payment online through the provider's official SDK, against the local fake on a loopback
 // port; the fake's signed webhooks go through the real route handler. This department requires
 // payment before review, so the review clock starts at payment.
-const PORT = 21_000 + Math.floor(Math.random() * 9_000);
 const SECRET = "whsec_integration_payments_01";
 vi.hoisted(() => {
   process.env.PAYMENT_REQUIRED_BEFORE_REVIEW = "true";
   process.env.STRIPE_SECRET_KEY = "sk_test_integration_payments_01";
   process.env.STRIPE_WEBHOOK_SECRET = "whsec_integration_payments_01";
 });
-process.env.PAYMENTS_API_URL = `http://127.0.0.1:${PORT}`;
+// The fake listens on any free port; the app's SDK is pointed at it before the route loads.
+const statuses: number[] = [];
+const fake: FakeProvider = await startFakeProvider({
+  port: 0,
+  secretKey: process.env.STRIPE_SECRET_KEY!,
+  webhookSecret: SECRET,
+  deliver: async (payload, signature) => {
+    const r = await postWebhook(payload, signature);
+    statuses.push(r.status);
+    return r.status;
+  },
+});
+process.env.PAYMENTS_API_URL = fake.url;
 
 const { POST: webhookRoute } = await import("@/app/api/payments/webhook/route");
 const base = process.env.APP_URL ?? "http://127.0.0.1:3100";
@@ -32,20 +44,6 @@ async function postWebhook(payload: string, signature: string | null) {
   return { status: res.status, body: (await res.json()) as Record<string, unknown> };
 }
 
-const statuses: number[] = [];
-let fake: FakeProvider;
-beforeAll(async () => {
-  fake = await startFakeProvider({
-    port: PORT,
-    secretKey: process.env.STRIPE_SECRET_KEY!,
-    webhookSecret: SECRET,
-    deliver: async (payload, signature) => {
-      const r = await postWebhook(payload, signature);
-      statuses.push(r.status);
-      return r.status;
-    },
-  });
-});
 afterAll(() => fake.close());
 
 beforeEach(async () => {
@@ -220,7 +218,7 @@ describe("webhook", () => {
     fake.setMode({ delivery: "hold" });
     await fake.pay(sessionOf(url));
     const pi = String(fake.sessions.get(sessionOf(url))!.payment_intent);
-    const sdk = new Stripe(process.env.STRIPE_SECRET_KEY!, { host: "127.0.0.1", port: PORT, protocol: "http", telemetry: false });
+    const sdk = new Stripe(process.env.STRIPE_SECRET_KEY!, { host: "127.0.0.1", port: fake.port, protocol: "http", telemetry: false });
     await sdk.refunds.create({ payment_intent: pi }); // made at the provider, e.g. by its dashboard
     await fake.release("reverse"); // charge.refunded, completed, succeeded
     const inv = await invoice(a.invoiceId);
@@ -259,7 +257,7 @@ describe("webhook", () => {
     const a = await accepted();
     const { url } = await startCheckout(db(), a.applicant, a.invoiceId);
     // A second checkout for the same invoice, made outside the app's reuse of the open one.
-    const sdk = new Stripe(process.env.STRIPE_SECRET_KEY!, { host: "127.0.0.1", port: PORT, protocol: "http", telemetry: false });
+    const sdk = new Stripe(process.env.STRIPE_SECRET_KEY!, { host: "127.0.0.1", port: fake.port, protocol: "http", telemetry: false });
     const inv0 = await invoice(a.invoiceId);
     const other = await sdk.checkout.sessions.create({
       mode: "payment",
@@ -301,7 +299,7 @@ describe("failure paths", () => {
   it("abandoned checkout: when the provider expires it, the invoice stays open and a new checkout can start", async () => {
     const a = await accepted();
     const { url } = await startCheckout(db(), a.applicant, a.invoiceId);
-    const sdk = new Stripe(process.env.STRIPE_SECRET_KEY!, { host: "127.0.0.1", port: PORT, protocol: "http", telemetry: false });
+    const sdk = new Stripe(process.env.STRIPE_SECRET_KEY!, { host: "127.0.0.1", port: fake.port, protocol: "http", telemetry: false });
     await sdk.checkout.sessions.expire(sessionOf(url)); // what the provider does after 24 hours
     await fake.idle(); // its event follows the API response
     const inv = await invoice(a.invoiceId);
@@ -331,5 +329,71 @@ describe("failure paths", () => {
     const rows = await db().select().from(paymentEvents).where(and(eq(paymentEvents.providerEventId, e.id)));
     expect(rows).toHaveLength(1);
     expect(await db().select().from(invoices)).toHaveLength(0);
+  });
+});
+
+describe("review waits for the fee (this department reviews after payment)", () => {
+  const appRow = async (id: number) => (await db().select().from(applications).where(eq(applications.id, id)))[0]!;
+  const cycleRow = async (id: number, n: number) => (await db().select().from(reviewCycles).where(and(eq(reviewCycles.applicationId, id), eq(reviewCycles.number, n))))[0]!;
+  const payOnline = async (applicant: Awaited<ReturnType<typeof accepted>>["applicant"], invoiceId: number) => {
+    const { url } = await startCheckout(db(), applicant, invoiceId);
+    await fake.pay(sessionOf(url));
+  };
+  const comment = (a: Awaited<ReturnType<typeof accepted>>, body: string) =>
+    addComment(db(), a.examiner, a.id, { discipline: "Structural", codeSection: "IBC 1604.3", codeEdition: "2021 IBC", body });
+
+  it("the examiner drafts comments but issues, approves or begins nothing until the fee is paid", async () => {
+    const a = await accepted();
+    const inv = await invoice(a.invoiceId);
+    const c = await comment(a, "FB-3: show the total-load deflection check against L/240.");
+    const waits = `Plan review waits for the fee: invoice ${inv.number} ($1,021.94) is not paid yet, and this department reviews only after payment.`;
+    const before = await counts();
+    const version = (await appRow(a.id)).version;
+    await expect(fireEvent(db(), a.examiner, a.id, "issue_corrections", version)).rejects.toMatchObject({ code: "guard_failed", message: waits });
+    await expect(fireEvent(db(), a.examiner, a.id, "approve_with_conditions", version, { conditions: [{ text: "Deferred submittal: beam hangers.", carriesCommentId: c.id }] })).rejects.toMatchObject({ code: "guard_failed", message: waits });
+    // Refused whole: no state, audit line or e-mail.
+    expect(await counts()).toEqual(before);
+    expect(await appRow(a.id)).toMatchObject({ state: "in_review", version });
+
+    await payOnline(a.applicant, a.invoiceId);
+    await fireEvent(db(), a.examiner, a.id, "issue_corrections", (await appRow(a.id)).version);
+    expect((await appRow(a.id)).state).toBe("corrections_issued");
+  });
+
+  it("a resubmittal beyond the covered cycles issues its own fee, and its clock and review wait for it", async () => {
+    const a = await accepted();
+    const admin = { ...(await makeUser("admin")), firmId: null };
+    const { version: _v, revision: _r, ...schedule } = DEMO_FEE_SCHEDULE;
+    await saveFeeSchedule(db(), admin, { ...schedule, resubmittal: { includedCycles: 1, feeCents: 18_000 } });
+    await payOnline(a.applicant, a.invoiceId);
+    const c = await comment(a, "Provide the D+L check for FB-3.");
+    await fireEvent(db(), a.examiner, a.id, "issue_corrections", (await appRow(a.id)).version);
+    await respondToComment(db(), a.applicant, a.id, c.id, { body: "Added on calc page 7.", changeReference: "Calc p. 7" });
+    await fireEvent(db(), a.applicant, a.id, "resubmit", (await appRow(a.id)).version);
+
+    const fee = (await db().select().from(invoices).where(and(eq(invoices.applicationId, a.id), eq(invoices.purpose, "resubmittal"))))[0]!;
+    expect(fee).toMatchObject({ cycle: 2, status: "open", totalCents: 18_000, scheduleVersion: "LF-FEES-r2" });
+    expect(fee.lineItems[0]!.basis).toBe("Fixed fee of $180.00 for each review cycle after the first 1, which the plan-review fee covers; this is cycle 2.");
+    const issued = (await mails("fees.invoice_issued")).find((m) => m.subject.includes(fee.number!))!;
+    expect(issued.subject).toBe(`LFB-PY-${String(serial).padStart(5, "0")}: resubmittal fee $180.00 — invoice ${fee.number}`);
+    expect(issued.textBody).toContain("The review of your resubmittal begins when this fee is paid");
+    expect(await appRow(a.id)).toMatchObject({ state: "resubmitted", cycle: 2, dueAt: null });
+    expect((await cycleRow(a.id, 2)).dueAt).toBeNull();
+    await expect(fireEvent(db(), a.examiner, a.id, "begin_review", (await appRow(a.id)).version)).rejects.toMatchObject({
+      code: "guard_failed",
+      message: `Plan review waits for the fee: invoice ${fee.number} ($180.00) is not paid yet, and this department reviews only after payment.`,
+    });
+
+    await payOnline(a.applicant, fee.id);
+    const cycle2 = await cycleRow(a.id, 2);
+    expect(cycle2.dueAt).not.toBeNull();
+    expect((await appRow(a.id)).dueAt).toEqual(cycle2.dueAt);
+    const started = (await audits("review.clock_started")).map((e) => e.summary);
+    expect(started).toHaveLength(2);
+    expect(started[1]).toMatch(/^Resubmittal fee paid: the review clock for cycle 2 started, due /);
+    const receipt = (await mails("fees.receipt")).find((m) => m.subject.includes(fee.number!))!;
+    expect(receipt.textBody).toContain("The review of your resubmittal (cycle 2) has started");
+    await fireEvent(db(), a.examiner, a.id, "begin_review", (await appRow(a.id)).version);
+    expect((await appRow(a.id)).state).toBe("in_review");
   });
 });

@@ -1,0 +1,2 @@
+CREATE INDEX `applications_decided_idx` ON `applications` (`state`,`decided_at`,`cycle`);--> statement-breakpoint
+CREATE INDEX `review_cycles_decided_idx` ON `review_cycles` (`decided_at`,`outcome`,`application_id`,`number`,`received_at`,`due_at`);

@@ -1,6 +1,7 @@
 import "server-only";
 import { type Db, type Tx, withTransaction } from "@/db/client";
 import { recordAudit } from "@/db/queries/audit";
+import { listApprovalsBetween, listCyclesDecidedBetween } from "@/db/queries/queue";
 import {
   deleteHoliday,
   getReviewTargets,
@@ -15,6 +16,7 @@ import { AppError, forbidden } from "@/lib/errors";
 import { makeCalendar, rollForward, type BusinessCalendar, type Day } from "./calendar";
 import { dueDayFor } from "./clock";
 import { REVIEW_TARGETS_KEY, type ReviewTargets } from "./targets";
+import { turnaround } from "./turnaround";
 import { dayInZone, DEPARTMENT_TIME_ZONE, endOfDayInZone, startOfDayInZone } from "./zone";
 
 type Actor = Pick<SessionUser, "id" | "role">;
@@ -22,6 +24,32 @@ type Actor = Pick<SessionUser, "id" | "role">;
 /** The holiday calendar as the arithmetic wants it. A few dozen rows: read whole. */
 export async function loadCalendar(database: Db | Tx): Promise<BusinessCalendar> {
   return makeCalendar((await listHolidays(database)).map((h) => h.day));
+}
+
+/**
+ * Department turnaround over [from, to] (department days, both ends included), with the review
+ * targets it was measured against: what GET /api/stats/turnaround answers.
+ */
+export async function departmentTurnaround(database: Db | Tx, from: Day, to: Day) {
+  const start = startOfDayInZone(from);
+  const end = endOfDayInZone(to);
+  const [cycles, approvals, cal, targets] = await Promise.all([
+    listCyclesDecidedBetween(database, start, end),
+    listApprovalsBetween(database, start, end),
+    loadCalendar(database),
+    getReviewTargets(database),
+  ]);
+  const measured = turnaround(
+    {
+      from,
+      to,
+      cycles: cycles.flatMap((c) => (c.decidedAt && c.outcome ? [{ ...c, decidedAt: c.decidedAt, outcome: c.outcome }] : [])),
+      approvals: approvals.flatMap((a) => (a.decidedAt ? [{ ...a, decidedAt: a.decidedAt }] : [])),
+    },
+    cal,
+    targets,
+  );
+  return { ...measured, targets };
 }
 
 // Read-mostly: the queue answers many requests a second from this. A change made through this

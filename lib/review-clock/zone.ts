@@ -44,15 +44,20 @@ function offsetMs(instant: Date, timeZone: string): number {
 
 // Zone offsets only change on quarter-hour instants (every zone's rules), so one lookup per
 // 15-minute bucket is exact; Intl's formatter is the slow part of formatting a queue page.
+// The bound holds the longest statistics period (three years, 105,216 buckets) with room to
+// spare, a few MB per zone; a smaller one emptied itself inside a one-year report.
 const QUARTER_HOUR = 15 * 60_000;
-const offsetCache = new Map<string, number>();
+const MAX_BUCKETS_PER_ZONE = 150_000;
+const offsetCache = new Map<string, Map<number, number>>();
 function cachedOffset(t: number, timeZone: string): number {
-  const key = `${timeZone}|${Math.floor(t / QUARTER_HOUR)}`;
-  let o = offsetCache.get(key);
+  let zone = offsetCache.get(timeZone);
+  if (!zone) offsetCache.set(timeZone, (zone = new Map()));
+  const bucket = Math.floor(t / QUARTER_HOUR);
+  let o = zone.get(bucket);
   if (o === undefined) {
-    if (offsetCache.size > 20_000) offsetCache.clear();
-    o = offsetMs(new Date(Math.floor(t / QUARTER_HOUR) * QUARTER_HOUR), timeZone);
-    offsetCache.set(key, o);
+    if (zone.size >= MAX_BUCKETS_PER_ZONE) zone.clear();
+    o = offsetMs(new Date(bucket * QUARTER_HOUR), timeZone);
+    zone.set(bucket, o);
   }
   return o;
 }

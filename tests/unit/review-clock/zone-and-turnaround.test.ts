@@ -37,6 +37,19 @@ describe("department days in America/Chicago", () => {
     expect(startOfDayInZone("2026-11-02", CHICAGO).toISOString()).toBe("2026-11-02T06:00:00.000Z");
   });
 
+  it("agrees with Intl at every quarter hour of 14 months, across both clock changes (more instants than one period's cache)", () => {
+    // The reference: the platform's own formatter, asked directly for each instant.
+    const ref = new Intl.DateTimeFormat("en-CA", { timeZone: "America/Chicago", year: "numeric", month: "2-digit", day: "2-digit" });
+    const from = Date.UTC(2025, 10, 1, 0, 7); // 7 minutes past, so no instant sits on a bucket edge
+    const n = 14 * 30 * 96; // ≈ 40,000 quarter hours
+    const wrong: string[] = [];
+    for (let k = 0; k < n; k++) {
+      const at = new Date(from + k * 15 * 60_000);
+      if (dayInZone(at) !== ref.format(at)) wrong.push(at.toISOString());
+    }
+    expect(wrong.slice(0, 5)).toEqual([]);
+  });
+
   it("formats a date without any zone shifting it", () => {
     expect(formatDay("2026-12-15")).toBe("Dec 15, 2026");
     expect(formatDayLong("2026-12-25")).toBe("Friday, December 25, 2026");

@@ -113,7 +113,8 @@ export function QueueTable({ initial }: { initial: QueueFilters }) {
       cell: ({ row: { original: r } }) => (
         <div className="flex flex-col items-start gap-1">
           <span className="num text-xs">{formatDayWithWeekday(r.dueDay)}</span>
-          <ClockBadge status={r.clock} />
+          {/* A clock held for the fee is not a missing due date: say which. */}
+          <ClockBadge status={r.clock} label={r.waitingForFee && r.clock.kind === "no_due_date" ? "Waiting for fee" : undefined} />
         </div>
       ),
     },

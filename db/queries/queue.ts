@@ -2,7 +2,7 @@ import "server-only";
 import { and, asc, count, desc, eq, gt, gte, inArray, isNotNull, isNull, lt, lte, notExists, or, sql, type SQL } from "drizzle-orm";
 import { alias, unionAll } from "drizzle-orm/mysql-core";
 import type { Db, Tx } from "../client";
-import { applications, remindersSent, reviewCycles, users } from "../schema";
+import { applications, invoices, remindersSent, reviewCycles, users } from "../schema";
 
 // The supervisor's queue: every open review (the states where the review clock runs).
 // Intake ("submitted") is the permit technician's queue and has no due date yet.
@@ -77,6 +77,8 @@ const rowColumns = {
   examinerName: examiner.name,
   receivedAt: applications.receivedAt,
   dueAt: applications.dueAt,
+  // Evaluated for the page's rows only (after the LIMIT), off the invoices' application index.
+  unpaidFee: sql<number>`EXISTS (SELECT 1 FROM ${invoices} WHERE ${invoices.applicationId} = ${applications.id} AND ${invoices.status} = 'open')`.mapWith(Number),
 };
 
 /** One state's slice of a page, read in index order (state [, examiner], key, id). */

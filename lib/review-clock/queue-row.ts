@@ -5,7 +5,8 @@ import type { BusinessCalendar, Day } from "./calendar";
 import { clockStatus } from "./clock";
 import { dayInZone } from "./zone";
 
-export function presentQueueRow(r: QueueRow, today: Day, cal: BusinessCalendar) {
+/** `feeBeforeReview`: the department reviews only after payment, so an unpaid fee holds the review. */
+export function presentQueueRow(r: QueueRow, today: Day, cal: BusinessCalendar, { feeBeforeReview }: { feeBeforeReview: boolean }) {
   const dueDay = r.dueAt ? dayInZone(r.dueAt) : null;
   return {
     id: r.id,
@@ -20,6 +21,7 @@ export function presentQueueRow(r: QueueRow, today: Day, cal: BusinessCalendar) 
     dueAt: r.dueAt?.toISOString() ?? null,
     dueDay,
     clock: clockStatus(dueDay, today, cal),
+    waitingForFee: feeBeforeReview && r.unpaidFee === 1,
   };
 }
 

@@ -12,6 +12,7 @@ const applicant = demoUser("applicant", 1); // Lena Marsh, Tamarack Builders
 const tech = demoUser("technician");
 const examiner = demoUser("examiner", 1);
 const admin = demoUser("admin");
+const supervisor = demoUser("supervisor");
 let appId = 0;
 let number = "";
 
@@ -94,6 +95,13 @@ test("the technician accepts; the fee is computed with its arithmetic and the re
   await expect(page.getByText(/Plan review waits for the fee: invoice INV-\d{2}-\d{5} \(\$1,021\.94\) is not paid yet/).first()).toBeVisible();
   await expect(page.getByRole("region", { name: "Fees" })).toContainText("review steps unlock, when the applicant pays it");
   await shot(page, "0-examiner-waits-for-fee");
+  await signOut(page);
+
+  // The supervisor's queue tells a review held for its fee from one missing a due date.
+  await signIn(page, supervisor.email, supervisor.password);
+  await expect(page.getByRole("heading", { level: 1, name: "Queue" })).toBeVisible();
+  const row = page.locator("table:has(caption:text('Open reviews')) tbody tr").filter({ hasText: number });
+  await expect(row.locator("[data-clock]")).toHaveText(/Waiting for fee/);
   await signOut(page);
 });
 

@@ -3,10 +3,13 @@ import { NextRequest } from "next/server";
 import Stripe from "stripe";
 import { afterAll, beforeEach, describe, expect, it, vi } from "vitest";
 import { db } from "@/db/client";
+import { listQueuePage } from "@/db/queries/queue";
 import { applications, auditEvents, invoices, outbox, paymentEvents, reviewCycles } from "@/db/schema";
 import { addComment, fireEvent, respondToComment } from "@/lib/applications/service";
 import { DEMO_FEE_SCHEDULE } from "@/lib/fees";
 import { invoiceDetail, saveFeeSchedule } from "@/lib/fees/service";
+import { dayInZone, makeCalendar } from "@/lib/review-clock";
+import { presentQueueRow } from "@/lib/review-clock/queue-row";
 import { startFakeProvider, type FakeProvider } from "@/lib/payments/fake-provider";
 import { confirmCheckout, startCheckout } from "@/lib/payments/checkout";
 import { makeUser, resetDb } from "./db-helpers";
@@ -358,6 +361,21 @@ describe("review waits for the fee (this department reviews after payment)", () 
     await payOnline(a.applicant, a.invoiceId);
     await fireEvent(db(), a.examiner, a.id, "issue_corrections", (await appRow(a.id)).version);
     expect((await appRow(a.id)).state).toBe("corrections_issued");
+  });
+
+  it("the supervisor's queue says which reviews wait for their fee, not just that they have no due date", async () => {
+    const a = await accepted();
+    const row = async (feeBeforeReview: boolean) => {
+      const now = new Date();
+      const page = await listQueuePage(db(), { states: ["in_review"], now, weekEndsAt: now, sort: "number", dir: "asc", limit: 50 });
+      const r = page.rows.find((x) => x.id === a.id)!;
+      return presentQueueRow(r, dayInZone(now), makeCalendar(), { feeBeforeReview });
+    };
+    expect(await row(true)).toMatchObject({ waitingForFee: true, clock: { kind: "no_due_date" } });
+    // A department that reviews first holds nothing for a fee.
+    expect((await row(false)).waitingForFee).toBe(false);
+    await payOnline(a.applicant, a.invoiceId);
+    expect(await row(true)).toMatchObject({ waitingForFee: false, clock: { kind: "on_track" } });
   });
 
   it("a resubmittal beyond the covered cycles issues its own fee, and its clock and review wait for it", async () => {

@@ -4,6 +4,7 @@ import { db } from "@/db/client";
 import { countQueue, listQueuePage, QUEUE_STATES, sortKeyOf, type QueueCursor, type QueueRow, type QueueSort, type SortDir } from "@/db/queries/queue";
 import { route } from "@/lib/api/handler";
 import { requireRole } from "@/lib/auth/session";
+import { env } from "@/lib/env";
 import { AppError } from "@/lib/errors";
 import { dayInZone, endOfDayInZone, weekEnd } from "@/lib/review-clock";
 import { presentQueueRow, type QueueApiPage } from "@/lib/review-clock/queue-row";
@@ -67,7 +68,7 @@ export const GET = route(async (req) => {
   ]);
   const last = page.rows.at(-1);
   const body: QueueApiPage = {
-    rows: page.rows.map((r) => presentQueueRow(r, today, cal)),
+    rows: page.rows.map((r) => presentQueueRow(r, today, cal, { feeBeforeReview: env().PAYMENT_REQUIRED_BEFORE_REVIEW })),
     nextCursor: page.hasMore && last ? encodeCursor(last, q.sort, q.dir) : null,
     total,
     today,

@@ -7,6 +7,7 @@ import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/field";
 import { fetchJson } from "@/lib/client/fetch-json";
 import { formatCents } from "@/lib/fees/money";
+import { CounterPaymentForm } from "./counter-payment-form";
 import { InvoiceLines } from "./invoice-lines";
 import { InvoiceStatus } from "./invoice-status";
 import type { InvoiceDetailView } from "./types";
@@ -107,6 +108,14 @@ export function InvoiceDetail({ initial, checkout, sessionId }: { initial: Invoi
         <dd className="num">{fmt(inv.createdAt)}</dd>
         <dt className="text-ink-soft">Paid</dt>
         <dd className="num">{fmt(inv.paidAt)}</dd>
+        {inv.counterPayment ? (
+          <>
+            <dt className="text-ink-soft">Paid at the counter</dt>
+            <dd>
+              {inv.counterPayment.methodLabel[0]!.toUpperCase() + inv.counterPayment.methodLabel.slice(1)}, recorded by {inv.counterPayment.recordedBy}
+            </dd>
+          </>
+        ) : null}
         {inv.paymentReference ? (
           <>
             <dt className="text-ink-soft">Payment reference</dt>
@@ -120,6 +129,7 @@ export function InvoiceDetail({ initial, checkout, sessionId }: { initial: Invoi
           </>
         ) : null}
       </dl>
+      {d.canRecordCounterPayment ? <CounterPaymentForm invoiceId={inv.id} totalCents={inv.totalCents} /> : null}
       <p className="mt-6 text-xs text-ink-faint">Card payments are taken on the payment provider&apos;s own checkout page; the department never sees or stores card numbers.</p>
     </div>
   );

@@ -109,7 +109,7 @@ export async function updateInvoiceIfVersion(
   tx: Tx,
   id: number,
   version: number,
-  patch: Partial<Pick<InvoiceRow, "status" | "providerSessionId" | "providerPaymentId" | "paidAt" | "closedAt">>,
+  patch: Partial<Pick<InvoiceRow, "status" | "providerSessionId" | "providerPaymentId" | "paidAt" | "closedAt" | "counterPayment">>,
 ): Promise<boolean> {
   const r = await tx
     .update(invoices)

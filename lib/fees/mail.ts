@@ -49,7 +49,7 @@ export function invoiceIssuedMail(c: InvoiceMailContext & { paymentRequiredBefor
   };
 }
 
-export function receiptMail(c: InvoiceMailContext & { paidAt: Date; paymentReference: string; reviewDueAt: Date | null; cycle: number }): Mail {
+export function receiptMail(c: InvoiceMailContext & { paidAt: Date; paymentReference: string; reviewDueAt: Date | null; cycle: number; paidBy?: string }): Mail {
   const due = c.reviewDueAt ? formatDayLong(dayInZone(c.reviewDueAt)) : "";
   const clock = !c.reviewDueAt
     ? ""
@@ -60,7 +60,7 @@ export function receiptMail(c: InvoiceMailContext & { paidAt: Date; paymentRefer
     subject: `Receipt: ${c.invoiceNumber} paid, ${formatCents(c.totalCents)} — ${c.applicationNumber}`,
     text: dear(
       c.recipientName,
-      `We received your payment for invoice ${c.invoiceNumber}, application ${c.applicationNumber} (${c.siteAddress}).\n\n${lineList(c.lines, c.totalCents)}\n\nPaid: ${formatDayLong(dayInZone(c.paidAt))}, by card online\nPayment reference: ${c.paymentReference}${clock}\n\nKeep this message as your receipt. Invoice and receipt: ${c.link}`,
+      `We received your payment for invoice ${c.invoiceNumber}, application ${c.applicationNumber} (${c.siteAddress}).\n\n${lineList(c.lines, c.totalCents)}\n\nPaid: ${formatDayLong(dayInZone(c.paidAt))}, ${c.paidBy ?? "by card online"}\nPayment reference: ${c.paymentReference}${clock}\n\nKeep this message as your receipt. Invoice and receipt: ${c.link}`,
     ),
   };
 }

@@ -1,9 +1,11 @@
 import "server-only";
+import { z } from "zod";
 import { type Db, type Tx, withTransaction } from "@/db/client";
 import { getApplicationRow, toResource } from "@/db/queries/applications";
 import { recordAudit } from "@/db/queries/audit";
 import {
   getInvoice,
+  getUserContact,
   insertInvoiceOnce,
   listInvoices,
   listInvoicesForApplication,
@@ -23,7 +25,7 @@ import type { Application } from "@/db/schema";
 import { env } from "@/lib/env";
 import { AppError, forbidden, notFound } from "@/lib/errors";
 import { expireCheckoutSession, providerMessage, refundPayment } from "@/lib/payments/provider";
-import { invoiceMailContext, markRefunded } from "@/lib/payments/settle";
+import { applyCounterPayment, COUNTER_METHODS, invoiceMailContext, markRefunded, type CounterMethod } from "@/lib/payments/settle";
 import { checkAccess } from "@/lib/workflow";
 import { bracketJumps, quoteResubmittalFee, quoteReviewFee, type FeeQuote } from "./compute";
 import { FEE_MAIL_TEMPLATES, invoiceIssuedMail, voidMail } from "./mail";
@@ -193,15 +195,46 @@ async function refundPaidInvoice(tx: Tx, inv: InvoiceRow, app: AppRow, now: Date
   }
 }
 
+/** The invoice and its application, locked in the order settlement uses (application, then invoice). */
+async function lockInvoiceForStaff(tx: Tx, actor: Actor, invoiceId: number): Promise<{ app: AppRow; inv: InvoiceRow }> {
+  const peek = await getInvoice(tx, invoiceId);
+  if (!peek) throw notFound("That invoice");
+  const app = await lockApplicationRow(tx, peek.applicationId);
+  const inv = await lockInvoice(tx, invoiceId);
+  if (!app || !inv || checkAccess(actor, "application.view", toResource(app)) === "not_found") throw notFound("That invoice");
+  return { app, inv };
+}
+
+export const counterPaymentSchema = z.object({
+  method: z.enum(Object.keys(COUNTER_METHODS) as [CounterMethod, ...CounterMethod[]], { error: "Choose cheque, cash or card at the counter terminal." }),
+  reference: z
+    .string({ error: "Enter the cheque number or the counter receipt number." })
+    .trim()
+    .min(1, "Enter the cheque number or the counter receipt number.")
+    .max(60, "At most 60 characters.")
+    .regex(/^[\p{L}\p{N} ./#-]+$/u, "Letters, digits, spaces and . / # - only."),
+});
+
+/**
+ * A payment taken at the department's counter (cheque, cash, card terminal), recorded by a
+ * permit technician or supervisor against an open invoice: paid as if online, with its receipt.
+ */
+export async function recordCounterPayment(database: Db, actor: Actor, invoiceId: number, raw: unknown, ip?: string): Promise<{ status: InvoiceStatus }> {
+  if (actor.role !== "technician" && actor.role !== "supervisor") throw forbidden("Permit technicians and supervisors record payments taken at the counter.");
+  const input = counterPaymentSchema.parse(raw);
+  return withTransaction(database, async (tx) => {
+    const { app, inv } = await lockInvoiceForStaff(tx, actor, invoiceId);
+    const who = await getUserContact(tx, actor.id);
+    await applyCounterPayment(tx, inv, app, { ...input, recordedBy: { id: actor.id, role: actor.role, name: who?.name ?? `#${actor.id}` }, ip }, new Date());
+    return { status: "paid" as const };
+  });
+}
+
 /** Staff retry of a refund the provider refused at withdrawal. */
 export async function retryRefund(database: Db, actor: Actor, invoiceId: number): Promise<{ status: InvoiceStatus }> {
   if (actor.role !== "technician" && actor.role !== "supervisor") throw forbidden("Permit technicians and supervisors issue refunds.");
   return withTransaction(database, async (tx) => {
-    const peek = await getInvoice(tx, invoiceId);
-    if (!peek) throw notFound("That invoice");
-    const app = await lockApplicationRow(tx, peek.applicationId);
-    const inv = await lockInvoice(tx, invoiceId);
-    if (!app || !inv || checkAccess(actor, "application.view", toResource(app)) === "not_found") throw notFound("That invoice");
+    const { app, inv } = await lockInvoiceForStaff(tx, actor, invoiceId);
     const reason = refundRefusal(inv, app, await reviewWorkExists(tx, app.id, inv.cycle));
     if (reason) throw new AppError("conflict", reason);
     const ok = await refundPaidInvoice(tx, inv, app, new Date(), actor, "Refund issued by staff after the withdrawal.");
@@ -234,7 +267,8 @@ export function publicInvoice(inv: InvoiceRow) {
     createdAt: inv.createdAt,
     paidAt: inv.paidAt,
     closedAt: inv.closedAt,
-    paymentReference: inv.providerPaymentId,
+    paymentReference: inv.providerPaymentId ?? inv.counterPayment?.reference ?? null,
+    counterPayment: inv.counterPayment ? { method: inv.counterPayment.method, methodLabel: COUNTER_METHODS[inv.counterPayment.method], recordedBy: inv.counterPayment.recordedBy } : null,
   };
 }
 
@@ -282,6 +316,7 @@ export async function invoiceDetail(database: Db, actor: Actor, invoiceId: numbe
     lastAttempt: last && inv.status === "open" ? { type: last.type, at: last.receivedAt, message: lastError } : null,
     canPay: actor.role === "applicant" && actor.id === app.applicantId && inv.status === "open",
     canRefund: staff && refundRefusal(inv, app, await reviewWorkExists(database, app.id, inv.cycle)) === null,
+    canRecordCounterPayment: staff && inv.status === "open",
     paymentRequiredBeforeReview: env().PAYMENT_REQUIRED_BEFORE_REVIEW,
   };
 }

@@ -146,6 +146,54 @@ export async function applyPayment(tx: Tx, inv: InvoiceRow, app: AppRow, pay: Pa
   return "paid";
 }
 
+export const COUNTER_METHODS = { cheque: "cheque", cash: "cash", card_terminal: "card at the counter terminal" } as const;
+export type CounterMethod = keyof typeof COUNTER_METHODS;
+
+/** "by cheque no. 1042", "in cash, receipt R-2291": how a counter payment reads on the receipt. */
+export function counterPaidBy(method: CounterMethod, reference: string): string {
+  if (method === "cheque") return `by cheque no. ${reference}, at the department's counter`;
+  if (method === "cash") return `in cash at the department's counter, counter receipt ${reference}`;
+  return `by card at the department's counter terminal, slip ${reference}`;
+}
+
+/**
+ * A payment taken at the counter and recorded by staff: the invoice is paid as by an online
+ * payment (audit line, receipt, the held review clock started). Only an open invoice; a checkout
+ * left open meanwhile and paid later is refunded as a second payment (applyPayment).
+ */
+export async function applyCounterPayment(
+  tx: Tx,
+  inv: InvoiceRow,
+  app: AppRow,
+  c: { method: CounterMethod; reference: string; recordedBy: { id: number; role: string; name: string }; ip?: string },
+  now: Date,
+): Promise<void> {
+  if (inv.status !== "open") throw new AppError("conflict", inv.status === "paid" ? "This invoice is already paid." : `This invoice is ${inv.status}; there is nothing to pay.`);
+  const ok = await updateInvoiceIfVersion(tx, inv.id, inv.version, {
+    status: "paid",
+    paidAt: now,
+    counterPayment: { method: c.method, reference: c.reference, recordedById: c.recordedBy.id, recordedBy: c.recordedBy.name },
+  });
+  if (!ok) throw new AppError("conflict", "The invoice changed while the payment was being recorded.");
+  const paidBy = counterPaidBy(c.method, c.reference);
+  await recordAudit(tx, {
+    actor: { id: c.recordedBy.id, role: c.recordedBy.role },
+    action: "invoice.paid_at_counter",
+    entityType: "invoice",
+    entityId: inv.id,
+    applicationId: app.id,
+    summary: `${inv.number} paid ${paidBy}: ${formatCents(inv.totalCents)}, recorded by ${c.recordedBy.name}.`,
+    detail: { method: c.method, reference: c.reference },
+    ip: c.ip,
+  });
+  const reviewDueAt = await startHeldClock(tx, inv, app, now);
+  const ctx = await invoiceMailContext(tx, inv, app);
+  if (ctx) {
+    const m = receiptMail({ ...ctx, paidAt: now, paymentReference: c.reference, reviewDueAt, cycle: inv.cycle, paidBy });
+    await enqueueMail(tx, [{ dedupeKey: `invoice:${inv.id}:receipt`, template: FEE_MAIL_TEMPLATES.receipt, to: ctx.to, applicationId: app.id, ...m }]);
+  }
+}
+
 /**
  * Where the department requires payment before review, acceptance leaves cycle 1 (and a charged
  * resubmittal its cycle) without a due date; the payment starts it: received now, due by the

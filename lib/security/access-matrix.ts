@@ -98,6 +98,7 @@ export const ROUTE_MATRIX: readonly RouteRow[] = [
   { method: "POST", path: "/api/invoices/[id]/checkout", scope: "invoice", state: "in_review", allow: ["owner"], writes: true, why: "only the applicant pays online" },
   { method: "POST", path: "/api/invoices/[id]/confirm", scope: "invoice", state: "in_review", allow: VIEWERS, writes: true, why: "asks the provider how a checkout ended; settles only what the provider says" },
   { method: "POST", path: "/api/invoices/[id]/refund", scope: "invoice", state: "in_review", allow: ["technician", "supervisor"], writes: true, why: "staff retry a refused refund" },
+  { method: "POST", path: "/api/invoices/[id]/counter-payment", scope: "invoice", state: "in_review", allow: ["technician", "supervisor"], writes: true, why: "staff record a payment taken at the counter" },
   { method: "GET", path: "/api/mailbox", scope: "none", state: "any", allow: ["admin"], writes: false, why: "demo mail receiver, administrator only" },
   { method: "GET", path: "/api/me", scope: "none", state: "any", allow: SIGNED_IN, writes: false, why: "any active account" },
   { method: "POST", path: "/api/payments/webhook", scope: "none", state: "any", allow: "public", writes: true, why: "the provider's signature over the raw body is the authentication" },

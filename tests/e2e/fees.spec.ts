@@ -31,15 +31,27 @@ const checkout = {
   pay: (page: Page, amount: string) => page.getByRole("button", { name: `Pay ${amount}` }).click(),
 };
 
-test("the applicant files an application through the API and submits it", async ({ page }) => {
-  await signIn(page, applicant.email, applicant.password);
+/** The technician accepts it with the whole checklist and assigns the examiner. */
+async function acceptInBrowser(page: Page, id: number) {
+  await page.goto(`/applications/${id}`);
+  await page.getByRole("group", { name: "Actions on this application" }).getByRole("button", { name: "Accept for review", exact: true }).click();
+  const dialog = page.getByRole("dialog");
+  for (const box of await dialog.getByRole("checkbox").all()) await box.check();
+  const select = dialog.getByLabel("Plans examiner");
+  await select.selectOption((await select.locator("option", { hasText: examiner.name }).getAttribute("value"))!);
+  await dialog.getByRole("button", { name: "Accept for review" }).click();
+  await expect(page.getByText("In plan review").first()).toBeVisible();
+}
+
+/** The applicant files an application through the API with a drawing set and submits it; returns its id and number. */
+async function fileThroughApi(page: Page, siteAddress: string): Promise<{ id: number; number: string }> {
   const origin = new URL(page.url()).origin;
   const headers = { origin, "content-type": "application/json" };
   const created = await page.request.post("/api/applications", {
     headers,
     data: {
       workDescription: "Second-story addition over the existing garage, glulam floor beams",
-      siteAddress: "18 Foundry Row, Larkspur Falls",
+      siteAddress,
       parcelNumber: "120-311-04",
       occupancyGroup: "R-3",
       constructionType: "VB",
@@ -49,28 +61,28 @@ test("the applicant files an application through the API and submits it", async 
     },
   });
   expect(created.status()).toBe(201);
-  ({ id: appId, number } = (await created.json()).application);
+  const filed = (await created.json()).application as { id: number; number: string };
+  const id = filed.id;
   const pdf = await makeDrawingSet({ sheets: [{ number: "S-101", title: "FOUNDATION PLAN" }, { number: "S-201", title: "SECOND FLOOR FRAMING PLAN" }] });
-  const up = await page.request.post(`/api/applications/${appId}/documents?kind=drawings`, {
+  const up = await page.request.post(`/api/applications/${id}/documents?kind=drawings`, {
     headers: { origin, "content-type": "application/pdf", "x-file-name": encodeURIComponent("foundry-row-structural.pdf") },
     data: Buffer.from(pdf),
   });
   expect(up.status()).toBe(201);
-  const view = await (await page.request.get(`/api/applications/${appId}`)).json();
-  const sub = await page.request.post(`/api/applications/${appId}/events`, { headers, data: { event: "submit", version: view.application.version } });
+  const view = await (await page.request.get(`/api/applications/${id}`)).json();
+  const sub = await page.request.post(`/api/applications/${id}/events`, { headers, data: { event: "submit", version: view.application.version } });
   expect(sub.status()).toBe(200);
+  return filed;
+}
+
+test("the applicant files an application through the API and submits it", async ({ page }) => {
+  await signIn(page, applicant.email, applicant.password);
+  ({ id: appId, number } = await fileThroughApi(page, "18 Foundry Row, Larkspur Falls"));
 });
 
 test("the technician accepts; the fee is computed with its arithmetic and the review clock waits for payment", async ({ page, request }) => {
   await signIn(page, tech.email, tech.password);
-  await page.goto(`/applications/${appId}`);
-  await page.getByRole("group", { name: "Actions on this application" }).getByRole("button", { name: "Accept for review", exact: true }).click();
-  const dialog = page.getByRole("dialog");
-  for (const box of await dialog.getByRole("checkbox").all()) await box.check();
-  const select = dialog.getByLabel("Plans examiner");
-  await select.selectOption((await select.locator("option", { hasText: examiner.name }).getAttribute("value"))!);
-  await dialog.getByRole("button", { name: "Accept for review" }).click();
-  await expect(page.getByText("In plan review").first()).toBeVisible();
+  await acceptInBrowser(page, appId);
 
   const fees = page.getByRole("region", { name: "Fees" });
   await expect(fees).toContainText("Waiting for the plan-review fee");
@@ -178,4 +190,31 @@ test("staff see the paid invoice in the department's list; the administrator tri
   await expect(page.getByRole("alert").filter({ hasText: "Some fields need attention." })).toBeVisible();
   await expect(page.getByRole("alert").filter({ hasText: "Enter a percentage" })).toBeVisible();
   await shot(page, "7-admin-schedule");
+});
+
+test("a cheque paid at the counter: the technician records it, review starts and the applicant gets the receipt", async ({ page, request }) => {
+  await signIn(page, applicant.email, applicant.password);
+  const other = await fileThroughApi(page, "7 Tannery Lane, Larkspur Falls");
+  await signOut(page);
+
+  await signIn(page, tech.email, tech.password);
+  await acceptInBrowser(page, other.id);
+  await page.getByRole("region", { name: "Fees" }).getByRole("link", { name: /^INV-/ }).click();
+  const form = page.getByRole("form", { name: "Payment taken at the counter" });
+  // An empty number is refused, naming the field; nothing is recorded.
+  await form.getByRole("button", { name: /^Record payment of \$/ }).click();
+  await expect(form.getByRole("alert")).toHaveText("Enter the cheque number or the counter receipt number.");
+  await expect(page.locator("[data-invoice-status]")).toHaveAttribute("data-invoice-status", "open");
+  await form.getByLabel("Paid by").selectOption({ label: "Cheque" });
+  await form.getByLabel("Cheque number").fill("2207");
+  await form.getByRole("button", { name: /^Record payment of \$/ }).click();
+  await expect(page.locator("[data-invoice-status]")).toHaveAttribute("data-invoice-status", "paid");
+  await expect(page.getByText("Cheque, recorded by")).toBeVisible();
+  await expect(form).toHaveCount(0);
+  await shot(page, "8-counter-payment");
+  await signOut(page);
+
+  const receipt = await waitForMail(request, applicant.email, new RegExp(`^Receipt: INV-\\d{2}-\\d{5} paid, .* — ${other.number}$`));
+  expect(receipt.text).toContain("by cheque no. 2207, at the department's counter");
+  expect(receipt.text).toContain("Plan review has started");
 });

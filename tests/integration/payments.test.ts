@@ -7,7 +7,7 @@ import { listQueuePage } from "@/db/queries/queue";
 import { applications, auditEvents, invoices, outbox, paymentEvents, reviewCycles } from "@/db/schema";
 import { addComment, fireEvent, respondToComment } from "@/lib/applications/service";
 import { DEMO_FEE_SCHEDULE } from "@/lib/fees";
-import { invoiceDetail, saveFeeSchedule } from "@/lib/fees/service";
+import { invoiceDetail, recordCounterPayment, saveFeeSchedule } from "@/lib/fees/service";
 import { dayInZone, makeCalendar } from "@/lib/review-clock";
 import { presentQueueRow } from "@/lib/review-clock/queue-row";
 import { startFakeProvider, type FakeProvider } from "@/lib/payments/fake-provider";
@@ -361,6 +361,34 @@ describe("review waits for the fee (this department reviews after payment)", () 
     await payOnline(a.applicant, a.invoiceId);
     await fireEvent(db(), a.examiner, a.id, "issue_corrections", (await appRow(a.id)).version);
     expect((await appRow(a.id)).state).toBe("corrections_issued");
+  });
+
+  it("a cheque taken at the counter, recorded by the technician, pays the fee: receipt, clock started, review unlocked", async () => {
+    const a = await accepted();
+    const inv0 = await invoice(a.invoiceId);
+    // Refused whole: the applicant, an empty reference, an unknown method.
+    await expect(recordCounterPayment(db(), a.applicant, a.invoiceId, { method: "cheque", reference: "1042" })).rejects.toMatchObject({ code: "forbidden" });
+    await expect(recordCounterPayment(db(), a.tech, a.invoiceId, { method: "cheque", reference: "  " })).rejects.toThrow("Enter the cheque number or the counter receipt number.");
+    await expect(recordCounterPayment(db(), a.tech, a.invoiceId, { method: "bitcoin", reference: "1042" })).rejects.toThrow("Choose cheque, cash or card at the counter terminal.");
+    expect(await invoice(a.invoiceId)).toMatchObject({ status: "open", version: inv0.version });
+
+    expect(await recordCounterPayment(db(), a.tech, a.invoiceId, { method: "cheque", reference: " 1042 " })).toEqual({ status: "paid" });
+    const inv = await invoice(a.invoiceId);
+    expect(inv).toMatchObject({ status: "paid", providerPaymentId: null, counterPayment: { method: "cheque", reference: "1042", recordedById: a.tech.id, recordedBy: a.tech.name } });
+    const [audit] = await audits("invoice.paid_at_counter");
+    expect(audit!.summary).toBe(`${inv.number} paid by cheque no. 1042, at the department's counter: $1,021.94, recorded by ${a.tech.name}.`);
+    const [receipt] = await mails("fees.receipt");
+    expect(receipt!.textBody).toContain("by cheque no. 1042, at the department's counter");
+    expect(receipt!.textBody).toContain("Payment reference: 1042");
+    expect(receipt!.textBody).toContain("Plan review has started");
+    const [cycle] = await db().select().from(reviewCycles).where(eq(reviewCycles.applicationId, a.id));
+    expect(cycle!.dueAt).not.toBeNull();
+    // Paid once: a second recording and an online checkout are refused.
+    await expect(recordCounterPayment(db(), a.tech, a.invoiceId, { method: "cash", reference: "R-7" })).rejects.toMatchObject({ code: "conflict", message: "This invoice is already paid." });
+    await expect(startCheckout(db(), a.applicant, a.invoiceId)).rejects.toMatchObject({ code: "conflict" });
+    expect((await invoiceDetail(db(), a.tech, a.invoiceId)).invoice.counterPayment).toEqual({ method: "cheque", methodLabel: "cheque", recordedBy: a.tech.name });
+    await fireEvent(db(), a.examiner, a.id, "approve", (await appRow(a.id)).version);
+    expect((await appRow(a.id)).state).toBe("approved");
   });
 
   it("the supervisor's queue says which reviews wait for their fee, not just that they have no due date", async () => {

@@ -73,6 +73,8 @@ const CALLS: Record<string, Spec> = {
   "POST /api/invoices/[id]/checkout": (_, fx) => ({ path: `/api/invoices/${fx.a.review.invoiceId}/checkout` }),
   "POST /api/invoices/[id]/confirm": (_, fx) => ({ path: `/api/invoices/${fx.a.review.invoiceId}/confirm`, body: { sessionId: "cs_test_unknown_session" } }),
   "POST /api/invoices/[id]/refund": (_, fx) => ({ path: `/api/invoices/${fx.a.review.invoiceId}/refund` }),
+  // An empty reference: staff get 422 and the fixture's invoice stays open for the other rows.
+  "POST /api/invoices/[id]/counter-payment": (_, fx) => ({ path: `/api/invoices/${fx.a.review.invoiceId}/counter-payment`, body: { method: "cheque", reference: "" } }),
   "GET /api/mailbox": () => ({ path: "/api/mailbox" }),
   "GET /api/me": () => ({ path: "/api/me" }),
   "POST /api/payments/webhook": () => ({ path: "/api/payments/webhook", body: { type: "checkout.session.completed" } }),

@@ -59,6 +59,7 @@ describe("the local fake of the payment provider", () => {
   });
 
   it("signs its webhooks so that the SDK's constructEvent accepts them, and only with the right secret", async () => {
+    await fake.idle();
     received.length = 0;
     const s = await session();
     await fake.pay(s.id);
@@ -97,6 +98,8 @@ describe("the local fake of the payment provider", () => {
   });
 
   it("holds events and releases them in reverse, for out-of-order tests", async () => {
+    // An earlier test's event (a refund, an expiry) follows its API answer: let it land first.
+    await fake.idle();
     received.length = 0;
     fake.setMode({ delivery: "hold" });
     const s = await session();

@@ -2,6 +2,7 @@
 // S3_FAKE_DIR (default .data/s3), listening on loopback S3_FAKE_PORT (default 4569).
 //   npm run fake:s3     then run the app with the S3_* lines it prints
 import { startFakeS3 } from "@/lib/storage/fake-s3";
+import { runLocalFake } from "./run-local-fake";
 
 const port = Number(process.env.S3_FAKE_PORT ?? 4569);
 const directory = process.env.S3_FAKE_DIR ?? ".data/s3";
@@ -11,7 +12,7 @@ if (!Number.isInteger(port) || port < 1 || port > 65535) {
   console.error(`[s3] S3_FAKE_PORT must be a port number, got "${process.env.S3_FAKE_PORT}"`);
   process.exit(2);
 }
-try {
+await runLocalFake("s3", "S3_FAKE_PORT", async () => {
   const fake = await startFakeS3({ port, directory, bucket });
   const o = fake.storageOptions;
   console.log(`[s3] local fake S3 at ${fake.url}, bucket "${bucket}", objects in ${directory}. Run the app with:`);
@@ -26,12 +27,5 @@ try {
       "S3_FORCE_PATH_STYLE=true",
     ].join("\n"),
   );
-  const stop = () => void fake.close().then(() => process.exit(0));
-  process.on("SIGINT", stop);
-  process.on("SIGTERM", stop);
-} catch (e) {
-  const err = e as NodeJS.ErrnoException;
-  if (err.code === "EADDRINUSE") console.error(`[s3] port ${port} is taken; set S3_FAKE_PORT to a free port`);
-  else console.error("[s3] failed to start:", err.message);
-  process.exit(1);
-}
+  return fake;
+});

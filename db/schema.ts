@@ -377,7 +377,8 @@ export const invoices = mysqlTable(
     scheduleVersion: varchar("schedule_version", { length: 40 }).notNull(),
     providerSessionId: varchar("provider_session_id", { length: 255 }),
     providerPaymentId: varchar("provider_payment_id", { length: 255 }),
-    // A payment taken at the department's counter (cheque, cash, card terminal) and recorded by staff.
+    // A payment taken at the department's counter (cheque, cash, card terminal) and recorded by staff;
+    // the recorder's name as it stood then, as on a paper receipt (the id finds the account today).
     counterPayment: json("counter_payment").$type<{ method: "cheque" | "cash" | "card_terminal"; reference: string; recordedById: number; recordedBy: string }>(),
     createdAt: createdAt(),
     paidAt: at("paid_at"),

@@ -137,13 +137,18 @@ export async function applyPayment(tx: Tx, inv: InvoiceRow, app: AppRow, pay: Pa
     return "paid_then_refunded";
   }
 
+  await afterPaid(tx, inv, app, now, { paymentReference: pay.paymentId });
+  return "paid";
+}
+
+/** What any payment of an open invoice owes, however it was taken: the held clock started, the receipt sent. */
+async function afterPaid(tx: Tx, inv: InvoiceRow, app: AppRow, now: Date, how: { paymentReference: string; paidBy?: string }): Promise<void> {
   const reviewDueAt = await startHeldClock(tx, inv, app, now);
   const ctx = await invoiceMailContext(tx, inv, app);
   if (ctx) {
-    const m = receiptMail({ ...ctx, paidAt: now, paymentReference: pay.paymentId, reviewDueAt, cycle: inv.cycle });
+    const m = receiptMail({ ...ctx, paidAt: now, reviewDueAt, cycle: inv.cycle, ...how });
     await enqueueMail(tx, [{ dedupeKey: `invoice:${inv.id}:receipt`, template: FEE_MAIL_TEMPLATES.receipt, to: ctx.to, applicationId: app.id, ...m }]);
   }
-  return "paid";
 }
 
 export const COUNTER_METHODS = { cheque: "cheque", cash: "cash", card_terminal: "card at the counter terminal" } as const;
@@ -186,12 +191,7 @@ export async function applyCounterPayment(
     detail: { method: c.method, reference: c.reference },
     ip: c.ip,
   });
-  const reviewDueAt = await startHeldClock(tx, inv, app, now);
-  const ctx = await invoiceMailContext(tx, inv, app);
-  if (ctx) {
-    const m = receiptMail({ ...ctx, paidAt: now, paymentReference: c.reference, reviewDueAt, cycle: inv.cycle, paidBy });
-    await enqueueMail(tx, [{ dedupeKey: `invoice:${inv.id}:receipt`, template: FEE_MAIL_TEMPLATES.receipt, to: ctx.to, applicationId: app.id, ...m }]);
-  }
+  await afterPaid(tx, inv, app, now, { paymentReference: c.reference, paidBy });
 }
 
 /**

@@ -25,6 +25,7 @@ import {
 import { AppError } from "@/lib/errors";
 import { makeCalcPackage, makeDrawingSet } from "../fixtures/pdf/make";
 import { makeUser, resetDb } from "./db-helpers";
+import { FB3_MODEL } from "@/tests/fixtures/fb3-model";
 
 const input = {
   workDescription: "Second-floor addition with a glulam floor beam FB-3",
@@ -52,15 +53,7 @@ const FB3: BeamFormInput = {
   claims: [{ segment: "S1", combo: "L", delta: "0.21", unit: "in", location: "midspan" }],
 };
 
-const goodModel = {
-  title: "FB-3",
-  kind: "beam",
-  nodes: { A: ["0 ft", "0 ft"], B: ["16 ft", "0 ft"] },
-  members: { AB: { ends: ["A", "B"], E: "1800 ksi", I: "738 in^4" } },
-  supports: { A: "pin", B: "roller" },
-  loads: [{ member: "AB", w: "-240 plf", case: "L" }],
-  checks: [{ id: "FB-3", member: "AB", row: "floor", material: "glulam", claimed: [{ combo: "L", delta: "0.21 in" }] }],
-};
+const goodModel = FB3_MODEL;
 
 async function people() {
   const applicant = { ...(await makeUser("applicant")), firmId: null };

@@ -8,6 +8,7 @@ import { hashPassword } from "@/lib/auth/password";
 import type { AccessActor } from "@/lib/security/access-matrix";
 import { makeCalcPackage, makeDrawingSet } from "../../fixtures/pdf/make";
 import { api, readAnswer, signIn } from "./app";
+import { FB3_MODEL } from "@/tests/fixtures/fb3-model";
 
 export const PASSWORD = "correct horse battery staple";
 
@@ -22,16 +23,8 @@ export const APPLICATION_INPUT = {
   dporLicence: "PE-40211",
 };
 
-/** FB-3, 16 ft glulam, claimed Δ_L 0.21 in where 5wl⁴/384EI gives about 0.27 in: a check that does not hold. */
-export const FB3_MODEL = {
-  title: "FB-3",
-  kind: "beam",
-  nodes: { A: ["0 ft", "0 ft"], B: ["16 ft", "0 ft"] },
-  members: { AB: { ends: ["A", "B"], E: "1800 ksi", I: "738 in^4" } },
-  supports: { A: "pin", B: "roller" },
-  loads: [{ member: "AB", w: "-240 plf", case: "L" }],
-  checks: [{ id: "FB-3", member: "AB", row: "floor", material: "glulam", claimed: [{ combo: "L", delta: "0.21 in" }] }],
-};
+
+export { FB3_MODEL };
 
 export const COMMENT = { discipline: "Structural", codeSection: "IBC 1604.3", codeEdition: "2021 IBC", body: "Show the deflection of FB-3 under live load against L/360." };
 
